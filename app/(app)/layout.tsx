@@ -1,0 +1,42 @@
+import Link from "next/link";
+import { requirePageRole } from "@/lib/auth/session";
+import { ROLE_LABEL, START_PAGE } from "@/lib/auth/roles";
+import { navFor } from "@/lib/auth/nav";
+import { Logo } from "@/components/logo";
+import { NavLinks } from "@/components/shell/nav-links";
+import { SignOutButton } from "@/components/shell/sign-out-button";
+import { Providers } from "@/components/shell/providers";
+
+export default async function AppLayout({ children }: { children: React.ReactNode }) {
+  const user = await requirePageRole();
+  const items = navFor(user.role).map(({ href, label }) => ({ href, label }));
+  return (
+    <div className="flex min-h-screen flex-col">
+      <header className="no-print bg-ink text-paper">
+        <div className="mx-auto flex max-w-[1600px] flex-wrap items-center gap-x-6 gap-y-2 px-4 py-2">
+          <Link href={START_PAGE[user.role]} className="text-paper">
+            <Logo />
+          </Link>
+          <div className="order-3 w-full sm:order-none sm:w-auto sm:flex-1">
+            <NavLinks items={items} />
+          </div>
+          <div className="ml-auto flex items-center gap-3 text-sm">
+            <span className="hidden text-right leading-tight sm:block">
+              <span className="block font-semibold">{user.name}</span>
+              <span className="block text-xs text-paper/70" data-testid="role">
+                {ROLE_LABEL[user.role]}
+              </span>
+            </span>
+            <span className="text-xs text-paper/70 sm:hidden" data-testid="role-short">
+              {ROLE_LABEL[user.role]}
+            </span>
+            <SignOutButton />
+          </div>
+        </div>
+      </header>
+      <Providers>
+        <div className="mx-auto w-full max-w-[1600px] flex-1 px-4 py-5">{children}</div>
+      </Providers>
+    </div>
+  );
+}

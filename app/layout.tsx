@@ -1,0 +1,22 @@
+import type { Metadata, Viewport } from "next";
+import "@fontsource/manrope/400.css";
+import "@fontsource/manrope/500.css";
+import "@fontsource/manrope/600.css";
+import "@fontsource/manrope/700.css";
+import "@fontsource/manrope/800.css";
+import "./globals.css";
+
+export const metadata: Metadata = {
+  title: { default: "Gaffline", template: "%s · Gaffline" },
+  description: "Crew dispatch board for electric distribution line work",
+};
+
+export const viewport: Viewport = { width: "device-width", initialScale: 1, themeColor: "#16232b" };
+
+export default function RootLayout({ children }: { children: React.ReactNode }) {
+  return (
+    <html lang="en">
+      <body className="min-h-screen">{children}</body>
+    </html>
+  );
+}

@@ -1,0 +1,21 @@
+import type { Role } from "./roles";
+
+export interface NavItem {
+  href: string;
+  label: string;
+  roles: Role[];
+}
+
+// One list; each user sees the entries for their role, in this order.
+export const NAV: NavItem[] = [
+  { href: "/board", label: "Board", roles: ["dispatcher", "supervisor", "admin"] },
+  { href: "/me", label: "My week", roles: ["lineworker"] },
+  { href: "/credentials", label: "Credentials", roles: ["hr", "admin", "supervisor"] },
+  { href: "/roster", label: "Roster", roles: ["hr", "admin", "dispatcher", "supervisor"] },
+  { href: "/audit", label: "Audit", roles: ["supervisor", "admin"] },
+  { href: "/admin", label: "Admin", roles: ["admin"] },
+];
+
+export function navFor(role: Role) {
+  return NAV.filter((n) => n.roles.includes(role));
+}

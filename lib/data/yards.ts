@@ -1,0 +1,51 @@
+import type { Knex } from "knex";
+
+export interface Yard {
+  id: number;
+  organisationId: number;
+  code: string;
+  name: string;
+  timezone: string;
+  address: string | null;
+  dispatcherPhone: string | null;
+}
+
+const toYard = (r: Record<string, unknown>): Yard => ({
+  id: Number(r.id),
+  organisationId: Number(r.organisation_id),
+  code: String(r.code),
+  name: String(r.name),
+  timezone: String(r.timezone),
+  address: (r.address as string) ?? null,
+  dispatcherPhone: (r.dispatcher_phone as string) ?? null,
+});
+
+export async function listYards(db: Knex, organisationId: number): Promise<Yard[]> {
+  const rows = await db("yards").where({ organisation_id: organisationId }).orderBy("code");
+  return rows.map(toYard);
+}
+
+/** The yard by code, or the user's home yard, or the first yard. */
+export async function pickYard(db: Knex, organisationId: number, code?: string | null, homeYardId?: number | null) {
+  const yards = await listYards(db, organisationId);
+  const yard =
+    (code && yards.find((y) => y.code.toLowerCase() === code.toLowerCase())) ||
+    (homeYardId && yards.find((y) => y.id === homeYardId)) ||
+    yards[0];
+  return { yard: yard ?? null, yards };
+}
+
+/** Today's date (YYYY-MM-DD) in an IANA zone. */
+export function todayIn(timezone: string, now = new Date()): string {
+  return new Intl.DateTimeFormat("en-CA", { timeZone: timezone, year: "numeric", month: "2-digit", day: "2-digit" }).format(now);
+}
+
+export function addDays(date: string, days: number): string {
+  const [y, m, d] = date.split("-").map(Number);
+  const t = new Date(Date.UTC(y, m - 1, d + days));
+  return t.toISOString().slice(0, 10);
+}
+
+export function tomorrowIn(timezone: string, now = new Date()) {
+  return addDays(todayIn(timezone, now), 1);
+}

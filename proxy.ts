@@ -1,0 +1,12 @@
+import { withAuth } from "next-auth/middleware";
+
+// Signed-out visitors are sent to /login for every page of the app. API routes check the
+// session and role themselves (and answer 401/403 as JSON), so they are not matched here.
+export default withAuth({
+  pages: { signIn: "/login" },
+  callbacks: { authorized: ({ token }) => !!token },
+});
+
+export const config = {
+  matcher: ["/((?!api|login|_next|favicon.ico|fonts|forbidden).*)"],
+};
