@@ -18,6 +18,8 @@ const csp = [
 
 /** @type {import('next').NextConfig} */
 const nextConfig = {
+  // A second build directory lets a developer run a dev server beside a production build.
+  distDir: process.env.NEXT_DIST_DIR || ".next",
   poweredByHeader: false,
   reactStrictMode: true,
   serverExternalPackages: ["knex", "mysql2", "twilio", "nodemailer", "highs", "bcryptjs"],
