@@ -1,0 +1,44 @@
+// OPERATOR_CERT: operators hold an equipment operator credential; drivers hold the licence
+// class the truck needs (a class A licence also covers class B).
+
+import { finding, who, type RuleCheck } from "./common";
+import type { Finding } from "./types";
+
+export const OPERATOR_CERT_SOURCE = "employer policy; 49 CFR 383 for licence classes";
+
+export const operatorCert: RuleCheck = (orders, ix) => {
+  const out: Finding[] = [];
+  for (const order of orders) {
+    const { people, positionsOf } = ix.crew(order.id);
+    const date = order.startDate;
+    const licence = order.driverLicence ?? "cdl_b";
+    for (const w of people) {
+      const positions = positionsOf.get(w.id)!;
+      const problems: string[] = [];
+      if (positions.has("operator") && !ix.holdsOn(w, "equipment_operator", date)) {
+        problems.push("has no equipment operator credential valid on the work day");
+      }
+      if (positions.has("driver")) {
+        const ok = ix.holdsOn(w, "cdl_a", date) || (licence === "cdl_b" && ix.holdsOn(w, "cdl_b", date));
+        if (!ok) {
+          problems.push(
+            `has no ${licence === "cdl_a" ? "class A" : "class A or B"} commercial driver's licence valid on the work day (the truck needs ${licence === "cdl_a" ? "class A" : "class B"})`,
+          );
+        }
+      }
+      if (problems.length > 0) {
+        out.push(
+          finding(
+            "OPERATOR_CERT",
+            "block",
+            order,
+            w.id,
+            `${who(w)} ${problems.join(" and ")}. Record a current credential or assign someone who holds one.`,
+            OPERATOR_CERT_SOURCE,
+          ),
+        );
+      }
+    }
+  }
+  return out;
+};

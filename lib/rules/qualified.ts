@@ -1,0 +1,65 @@
+// QUALIFIED: on energized work the climber and lead positions hold qualified workers
+// (journeymen or crew leads); an apprentice may climb only under a journeyman or crew lead on
+// the same order, and never leads. A ground hand climbing energized work is locked.
+
+import {
+  aClassification,
+  energizedAtLeast,
+  ENERGIZED_WORK_KV,
+  finding,
+  isJourneyLevel,
+  who,
+  type RuleCheck,
+} from "./common";
+import type { Finding } from "./types";
+
+export const QUALIFIED_SOURCE = '29 CFR 1910.269(l)(1); "qualified employee" in 1910.269(x)';
+
+export const qualified: RuleCheck = (orders, ix) => {
+  const out: Finding[] = [];
+  for (const order of orders) {
+    if (!energizedAtLeast(order, ENERGIZED_WORK_KV)) continue;
+    const { people, positionsOf } = ix.crew(order.id);
+    for (const w of people) {
+      const positions = positionsOf.get(w.id)!;
+      const c = w.classification;
+      if (isJourneyLevel(c)) continue;
+      const problems: string[] = [];
+      let locked = false;
+      if (positions.has("climber")) {
+        if (c === "apprentice") {
+          const supervised = people.some((p) => p.id !== w.id && isJourneyLevel(p.classification));
+          if (!supervised) {
+            problems.push(
+              "is an apprentice climbing energized work without a journeyman or crew lead on the order; add one to supervise or assign a qualified climber",
+            );
+          }
+        } else {
+          locked = c === "ground_hand";
+          problems.push(
+            `is ${aClassification(c)} in a climber position on energized work; only journeymen, crew leads or supervised apprentices may climb, so assign a qualified climber`,
+          );
+        }
+      }
+      if (positions.has("lead")) {
+        problems.push(
+          `is ${aClassification(c)} in the lead position; the lead on energized work must be a journeyman or crew lead`,
+        );
+      }
+      if (problems.length > 0) {
+        out.push(
+          finding(
+            "QUALIFIED",
+            "block",
+            order,
+            w.id,
+            `${who(w)} ${problems.join("; and ")}.${locked ? " This cannot be overridden." : ""}`,
+            QUALIFIED_SOURCE,
+            locked,
+          ),
+        );
+      }
+    }
+  }
+  return out;
+};

@@ -1,0 +1,71 @@
+// REST: worked time (time records plus every order the worker is on) separated by less than
+// the minimum rest joins into one stretch; a stretch containing an order must not exceed the
+// maximum shift. Elapsed epoch time throughout, so daylight-saving nights count real hours.
+
+import { finding, hours, who, type RuleCheck } from "./common";
+import { upperBound, type SnapshotIndex } from "./snapshot-index";
+import { epochToZonedWallTime } from "./time";
+import type { Finding, Interval, Worker, WorkOrder } from "./types";
+
+export const REST_SOURCE = 'common practice in utility labour agreements ("16 on, 8 off")';
+
+const HOUR_MS = 3_600_000;
+
+/**
+ * The stretch of worked time containing `order` for `worker`. Grows the order's interval by
+ * absorbing every order or time-record stretch less than the minimum rest away, until nothing
+ * more joins. Time records are pre-merged per worker, so each pass is a binary search.
+ */
+export function stretchContaining(ix: SnapshotIndex, worker: Worker, order: WorkOrder): Interval {
+  const gap = ix.policy.minRestHours * HOUR_MS;
+  const others = ix.ordersOf(worker.id);
+  const { starts, ends } = ix.recordStretches(worker);
+  let s = order.start;
+  let e = order.end;
+  for (;;) {
+    let ns = s;
+    let ne = e;
+    for (const o of others) {
+      if (o.start - e < gap && s - o.end < gap) {
+        if (o.start < ns) ns = o.start;
+        if (o.end > ne) ne = o.end;
+      }
+    }
+    // Record stretches are disjoint and sorted, so ends ascend too: the first that can join
+    // is the first with end > s - gap; they keep joining while start < e + gap.
+    for (let i = upperBound(ends, s - gap); i < starts.length && starts[i] - e < gap; i++) {
+      if (starts[i] < ns) ns = starts[i];
+      if (ends[i] > ne) ne = ends[i];
+    }
+    if (ns === s && ne === e) return { start: s, end: e };
+    s = ns;
+    e = ne;
+  }
+}
+
+export const rest: RuleCheck = (orders, ix) => {
+  const out: Finding[] = [];
+  const { minRestHours, maxShiftHours } = ix.policy;
+  const tz = ix.timezone;
+  const local = (ms: number) => epochToZonedWallTime(ms, tz).replace("T", " ");
+  for (const order of orders) {
+    for (const w of ix.crew(order.id).people) {
+      const st = stretchContaining(ix, w, order);
+      if (st.end - st.start > maxShiftHours * HOUR_MS) {
+        out.push(
+          finding(
+            "REST",
+            "block",
+            order,
+            w.id,
+            `${who(w)} would work a ${hours(st.end - st.start)} h stretch (${local(st.start)} to ${local(st.end)}) ` +
+              `without ${minRestHours} h rest; the limit is ${maxShiftHours} h. ` +
+              `Give at least ${minRestHours} h rest before this order or assign someone else.`,
+            REST_SOURCE,
+          ),
+        );
+      }
+    }
+  }
+  return out;
+};
