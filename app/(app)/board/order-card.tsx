@@ -1,0 +1,218 @@
+"use client";
+
+import { useDraggable, useDroppable } from "@dnd-kit/core";
+import { memo, useState } from "react";
+import type { OrderCard as Card, OverrideView, Seat } from "@/lib/board/types";
+import { findingKey } from "@/lib/board/types";
+import type { Finding } from "@/lib/rules/types";
+import { Badge } from "@/components/status";
+import { CLASSIFICATION_LABEL, fmtTime, POSITION_LABEL } from "@/lib/format";
+import { seatId } from "./dnd";
+import { FindingRow } from "./findings";
+
+const SEAT_STATE: Record<string, { tone: "muted" | "info" | "clear" | "block" | "warn"; word: string }> = {
+  draft: { tone: "muted", word: "Not sent" },
+  sent: { tone: "info", word: "Sent" },
+  delivered: { tone: "info", word: "Delivered" },
+  confirmed: { tone: "clear", word: "Confirmed" },
+  declined: { tone: "block", word: "Declined" },
+};
+
+export interface WorkerInfo {
+  name: string;
+  classification: string;
+  phone: string | null;
+}
+
+function SeatSlot({
+  seat,
+  worker,
+  preview,
+  dragging,
+}: {
+  seat: Seat;
+  worker: WorkerInfo | undefined;
+  preview: Finding[] | null;
+  dragging: boolean;
+}) {
+  const { setNodeRef: dropRef, isOver } = useDroppable({ id: seatId(seat.id), data: { positionId: seat.id } });
+  const a = seat.assignment;
+  const drag = useDraggable({ id: seatId(seat.id), data: { positionId: seat.id }, disabled: !a });
+  const label = POSITION_LABEL[seat.position];
+  const state = a ? (a.noReply ? { tone: "warn" as const, word: "No reply: call" } : SEAT_STATE[a.status]) : null;
+  const hoverBlock = isOver && preview && preview.length > 0;
+  const hoverOk = isOver && preview && preview.length === 0;
+  return (
+    <li
+      ref={dropRef}
+      data-testid={`seat-${seat.id}`}
+      data-position={seat.position}
+      aria-label={`${label} position${a && worker ? `, ${worker.name}` : ", open"}`}
+      className={`relative rounded-md border px-2 py-1.5 text-sm transition-colors ${
+        hoverBlock
+          ? "border-block bg-block-bg ring-2 ring-block"
+          : hoverOk
+            ? "border-clear bg-clear-bg ring-2 ring-clear"
+            : dragging && !a
+              ? "border-dashed border-copper bg-copper-100/40"
+              : a
+                ? "border-rule bg-white"
+                : "border-dashed border-ink-300 bg-paper"
+      }`}
+    >
+      <div className="flex items-center justify-between gap-2">
+        <span className="text-[11px] font-extrabold uppercase tracking-wide text-ink-500">{label}</span>
+        {state && <Badge tone={state.tone}>{state.word}</Badge>}
+      </div>
+      {a && worker ? (
+        <div
+          ref={drag.setNodeRef}
+          {...drag.listeners}
+          {...drag.attributes}
+          aria-label={`${worker.name}, ${label}`}
+          data-testid={`seated-${seat.id}`}
+          className={`mt-0.5 cursor-grab touch-none rounded outline-none focus-visible:ring-2 focus-visible:ring-copper ${drag.isDragging ? "opacity-40" : ""}`}
+        >
+          <span className="font-bold">{worker.name}</span>{" "}
+          <span className="text-xs text-ink-500">{CLASSIFICATION_LABEL[worker.classification]}</span>
+          {a.replyCode && a.status !== "draft" && <span className="ml-1 text-[11px] text-ink-500">code {a.replyCode}</span>}
+        </div>
+      ) : (
+        <div className="mt-0.5 text-xs text-ink-500">
+          {seat.declinedBy ? (
+            <span className="font-semibold text-block">
+              ⛔ Declined by {seat.declinedBy.name}
+              {seat.declinedBy.reason ? `: “${seat.declinedBy.reason}”` : ""} — refill
+            </span>
+          ) : (
+            "Open — drop a worker here"
+          )}
+        </div>
+      )}
+      {isOver && preview && (
+        <p role="status" className={`mt-1 text-xs font-bold ${preview.length ? "text-block" : "text-clear"}`}>
+          {preview.length ? `⛔ Would block: ${[...new Set(preview.map((f) => f.rule))].join(", ")}` : "✓ No new block"}
+        </p>
+      )}
+      {a && worker?.phone && (a.noReply || a.status === "declined") && (
+        <a className="text-xs font-semibold text-info underline" href={`tel:${worker.phone}`}>
+          Call {worker.phone}
+        </a>
+      )}
+    </li>
+  );
+}
+
+export const OrderCardView = memo(function OrderCardView({
+  card,
+  timezone,
+  findings,
+  overrides,
+  workers,
+  previewFor,
+  dragging,
+  canOverride,
+  onOverride,
+  locateWarning,
+}: {
+  card: Card;
+  timezone: string;
+  findings: Finding[];
+  overrides: OverrideView[];
+  workers: Map<number, WorkerInfo>;
+  previewFor: (positionId: number) => Finding[] | null;
+  dragging: boolean;
+  canOverride: boolean;
+  onOverride: (f: Finding) => void;
+  locateWarning: string | null;
+}) {
+  const [open, setOpen] = useState(false);
+  const valid = new Map(overrides.filter((o) => o.valid).map((o) => [findingKey(o), o]));
+  const blocks = findings.filter((f) => f.level === "block" && (f.locked || !valid.has(findingKey(f))));
+  const waived = findings.filter((f) => f.level === "block" && !f.locked && valid.has(findingKey(f)));
+  const warns = findings.filter((f) => f.level === "warn");
+  const filled = card.seats.filter((s) => s.assignment).length;
+  const people = new Set(card.seats.filter((s) => s.assignment).map((s) => s.assignment!.workerId)).size;
+  const declined = card.seats.some((s) => !s.assignment && s.declinedBy);
+  const onHold = card.status === "on_hold" || card.briefingState === "on_hold";
+  return (
+    <article
+      data-testid={`order-${card.number}`}
+      aria-label={`${card.number} ${card.title}`}
+      className={`card flex flex-col p-3 ${declined ? "ring-2 ring-block" : ""}`}
+    >
+      <header className="flex items-start justify-between gap-2">
+        <div className="min-w-0">
+          <p className="text-[11px] font-bold uppercase tracking-wide text-copper">
+            {card.number} · {fmtTime(card.start, timezone)}–{fmtTime(card.end, timezone)} · P{card.priority}
+          </p>
+          <h3 className="truncate font-extrabold leading-snug" title={card.title}>
+            {card.title}
+          </h3>
+          <p className="truncate text-xs text-ink-500">
+            {card.workTypeName}
+            {card.energized ? ` · energized ${card.voltageKv ?? "?"} kV` : " · de-energized"}
+            {card.emergency ? " · emergency" : ""}
+            {card.address ? ` · ${card.address}` : ""}
+            {card.structureNo ? ` · pole ${card.structureNo}` : ""}
+          </p>
+        </div>
+        <div className="flex shrink-0 flex-col items-end gap-1" data-testid="crew-state">
+          {blocks.length > 0 ? (
+            <Badge tone="block">{blocks.length} block{blocks.length > 1 ? "s" : ""}</Badge>
+          ) : (
+            <Badge tone="clear">Clear</Badge>
+          )}
+          {warns.length > 0 && <Badge tone="warn">{warns.length} warn</Badge>}
+          {waived.length > 0 && <Badge tone="waived">{waived.length} overridden</Badge>}
+        </div>
+      </header>
+      <div className="mt-1 flex flex-wrap gap-1">
+        <span className="text-[11px] font-semibold text-ink-500">
+          {filled}/{card.seats.length} seats · {people} {people === 1 ? "person" : "people"}
+          {card.minCrew ? ` · min ${card.minCrew}` : ""}
+        </span>
+        {onHold && <Badge tone="block">On hold{card.holdReason ? `: ${card.holdReason}` : ""}</Badge>}
+        {!onHold && card.briefingState === "briefed" && <Badge tone="clear">Briefed</Badge>}
+        {locateWarning && <Badge tone="warn">{locateWarning}</Badge>}
+      </div>
+      <ul className="mt-2 grid gap-1.5 sm:grid-cols-2">
+        {card.seats.map((s) => (
+          <SeatSlot
+            key={s.id}
+            seat={s}
+            worker={s.assignment ? workers.get(s.assignment.workerId) : undefined}
+            preview={previewFor(s.id)}
+            dragging={dragging}
+          />
+        ))}
+      </ul>
+      {findings.length > 0 && (
+        <div className="mt-2 border-t border-rule pt-2">
+          <button
+            type="button"
+            className="text-xs font-bold text-ink-700 underline-offset-2 hover:underline"
+            aria-expanded={open}
+            onClick={() => setOpen((v) => !v)}
+          >
+            {open ? "Hide findings" : `Show findings (${findings.length})`}
+          </button>
+          {open && (
+            <ul className="mt-1 space-y-1.5">
+              {findings.map((f) => (
+                <FindingRow
+                  key={findingKey(f) + f.message}
+                  finding={f}
+                  override={valid.get(findingKey(f))}
+                  workerName={f.workerId ? workers.get(Number(f.workerId))?.name : undefined}
+                  canOverride={canOverride}
+                  onOverride={onOverride}
+                />
+              ))}
+            </ul>
+          )}
+        </div>
+      )}
+    </article>
+  );
+});

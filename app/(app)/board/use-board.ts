@@ -1,0 +1,184 @@
+"use client";
+
+import { useMutation, useQuery, useQueryClient } from "@tanstack/react-query";
+import { useEffect, useMemo, useRef, useState } from "react";
+import type { BoardPayload, SeatAssignment } from "@/lib/board/types";
+import { createEngine, type RuleEngine } from "@/lib/rules/engine";
+import type { Assignment, Finding, Position } from "@/lib/rules/types";
+
+export type BoardKey = readonly ["board", string, string];
+
+export class HttpError extends Error {
+  constructor(
+    public status: number,
+    message: string,
+    public body: Record<string, unknown>,
+  ) {
+    super(message);
+  }
+}
+
+async function call<T>(url: string, init?: RequestInit): Promise<T> {
+  const res = await fetch(url, { ...init, headers: { "content-type": "application/json", ...(init?.headers ?? {}) } });
+  const text = await res.text();
+  let body: Record<string, unknown> = {};
+  try {
+    body = text ? JSON.parse(text) : {};
+  } catch {
+    body = { error: text.slice(0, 200) };
+  }
+  if (!res.ok) throw new HttpError(res.status, String(body.error ?? `Request failed (${res.status})`), body);
+  return body as T;
+}
+
+export function useBoardData(day: string, yard: string, initial?: BoardPayload) {
+  const key: BoardKey = ["board", day, yard];
+  const query = useQuery({
+    queryKey: key,
+    queryFn: () => call<BoardPayload>(`/api/board?date=${encodeURIComponent(day)}&yard=${encodeURIComponent(yard)}`),
+    initialData: initial && initial.day === day && initial.yard.code === yard ? initial : undefined,
+    refetchInterval: 60_000,
+  });
+  return { key, ...query };
+}
+
+/** Polls the shared board_events table; any new event for this day refreshes the board. */
+export function useLiveEvents(key: BoardKey, cursor: number | undefined, paused: boolean) {
+  const qc = useQueryClient();
+  const cursorRef = useRef(cursor ?? 0);
+  useEffect(() => {
+    if (cursor !== undefined && cursor > cursorRef.current) cursorRef.current = cursor;
+  }, [cursor]);
+  useEffect(() => {
+    let stop = false;
+    const [, day, yard] = key;
+    const tick = async () => {
+      if (stop || paused || document.hidden) return;
+      try {
+        const r = await call<{ events: unknown[]; cursor: number }>(
+          `/api/board/events?after=${cursorRef.current}&date=${day}&yard=${yard}`,
+        );
+        if (r.cursor > cursorRef.current) {
+          cursorRef.current = r.cursor;
+          if (r.events.length) await qc.invalidateQueries({ queryKey: key });
+        }
+      } catch {
+        /* the next tick tries again; the query shows its own error */
+      }
+    };
+    const t = setInterval(tick, 2_000);
+    return () => {
+      stop = true;
+      clearInterval(t);
+    };
+  }, [key[1], key[2], paused, qc]); // eslint-disable-line react-hooks/exhaustive-deps
+}
+
+export type Change =
+  | { kind: "add"; positionId: number; workerId: number }
+  | { kind: "move"; assignment: SeatAssignment; fromPositionId: number; positionId: number }
+  | { kind: "remove"; assignment: SeatAssignment; fromPositionId: number };
+
+/** The payload with one change applied, for the optimistic view. */
+export function applyLocally(p: BoardPayload, c: Change): BoardPayload {
+  const seatPos = new Map<number, { orderId: number; position: Position }>();
+  for (const o of p.orders) for (const s of o.seats) seatPos.set(s.id, { orderId: o.id, position: s.position });
+  let moving: SeatAssignment | null = null;
+  const orders = p.orders.map((o) => ({
+    ...o,
+    seats: o.seats.map((s) => {
+      if ((c.kind === "move" || c.kind === "remove") && s.id === c.fromPositionId) {
+        moving = s.assignment;
+        return { ...s, assignment: null };
+      }
+      return s;
+    }),
+  }));
+  const target = c.kind === "remove" ? null : c.positionId;
+  const workerId = c.kind === "add" ? c.workerId : c.assignment.workerId;
+  const placed = orders.map((o) => ({
+    ...o,
+    seats: o.seats.map((s) =>
+      s.id === target
+        ? {
+            ...s,
+            assignment: {
+              ...(moving ?? { id: -1, status: "draft" as const, version: 0, replyCode: "", sentAt: null, respondedAt: null, noReply: false }),
+              workerId,
+              status: "draft" as const,
+            },
+            declinedBy: null,
+          }
+        : s,
+    ),
+  }));
+  const assignments: Assignment[] = p.snapshot.assignments.filter((a) => {
+    if (c.kind === "add") return true;
+    const from = seatPos.get(c.fromPositionId)!;
+    return !(a.workOrderId === String(from.orderId) && a.workerId === String(workerId) && a.position === from.position);
+  });
+  if (target !== null) {
+    const to = seatPos.get(target)!;
+    assignments.push({ workOrderId: String(to.orderId), workerId: String(workerId), position: to.position });
+  }
+  return { ...p, orders: placed, snapshot: { ...p.snapshot, assignments } };
+}
+
+export function useBoardMutations(key: BoardKey, notify: (msg: string, tone?: "ok" | "error") => void) {
+  const qc = useQueryClient();
+  return useMutation({
+    // One at a time, in order: each write sends the version the previous one produced.
+    scope: { id: `board-${key[1]}-${key[2]}` },
+    mutationFn: async (c: Change) => {
+      const latest = qc.getQueryData<BoardPayload>(key);
+      const versionOf = (positionId: number) => {
+        for (const o of latest?.orders ?? []) for (const s of o.seats) if (s.id === positionId) return { order: o.version, a: s.assignment };
+        return null;
+      };
+      if (c.kind === "add") {
+        return call("/api/assignments", {
+          method: "POST",
+          body: JSON.stringify({ positionId: c.positionId, workerId: c.workerId }),
+        });
+      }
+      const current = versionOf(c.fromPositionId)?.a ?? c.assignment;
+      if (c.kind === "move") {
+        return call(`/api/assignments/${current.id}`, {
+          method: "PATCH",
+          body: JSON.stringify({ positionId: c.positionId, version: current.version }),
+        });
+      }
+      return call(`/api/assignments/${current.id}?version=${current.version}`, { method: "DELETE" });
+    },
+    onMutate: async (c) => {
+      await qc.cancelQueries({ queryKey: key });
+      const before = qc.getQueryData<BoardPayload>(key);
+      if (before) qc.setQueryData<BoardPayload>(key, { ...applyLocally(before, c), findings: before.findings });
+      return { before };
+    },
+    onError: (err, _c, ctx) => {
+      if (ctx?.before) qc.setQueryData(key, ctx.before);
+      notify(err instanceof HttpError ? err.message : "The change was not saved; check the connection and try again.", "error");
+    },
+    onSuccess: () => notify("Saved.", "ok"),
+    onSettled: () => qc.invalidateQueries({ queryKey: key }),
+  });
+}
+
+/** The client-side engine over the payload's snapshot, for instant findings and drop previews. */
+export function useEngine(payload: BoardPayload | undefined) {
+  return useMemo<RuleEngine | null>(() => (payload ? createEngine(payload.snapshot) : null), [payload?.snapshot]); // eslint-disable-line react-hooks/exhaustive-deps
+}
+
+export function useToast() {
+  const [toast, setToast] = useState<{ msg: string; tone: "ok" | "error"; at: number } | null>(null);
+  useEffect(() => {
+    if (!toast) return;
+    const t = setTimeout(() => setToast(null), toast.tone === "error" ? 8000 : 2500);
+    return () => clearTimeout(t);
+  }, [toast]);
+  return { toast, notify: (msg: string, tone: "ok" | "error" = "ok") => setToast({ msg, tone, at: Date.now() }) };
+}
+
+export { call };
+export type { Finding };

@@ -1,0 +1,14 @@
+import { db } from "@/lib/db";
+import { handler, json, readJson } from "@/lib/api/http";
+import { requireRole } from "@/lib/auth/session";
+import { CAN_DISPATCH } from "@/lib/auth/roles";
+import { createAssignmentSchema } from "@/lib/validation/board";
+import { createAssignment, findingsAfter } from "@/lib/data/assignments";
+
+export const POST = handler(async (req) => {
+  const user = await requireRole(...CAN_DISPATCH);
+  const input = await readJson(req, createAssignmentSchema);
+  const result = await createAssignment(db(), user, input);
+  const recheck = await findingsAfter(db(), user.organisationId, result.orderIds, result.workerIds);
+  return json({ ...result, recheck }, 201);
+});

@@ -1,0 +1,24 @@
+import { db } from "@/lib/db";
+import { ApiError, handler, json, readQuery } from "@/lib/api/http";
+import { requireRole } from "@/lib/auth/session";
+import { CAN_DISPATCH } from "@/lib/auth/roles";
+import { boardQuerySchema } from "@/lib/validation/board";
+import { pickYard, tomorrowIn } from "@/lib/data/yards";
+import { loadBoard } from "@/lib/data/board";
+import { boardExtras } from "@/lib/board/extras";
+
+export const dynamic = "force-dynamic";
+
+export const GET = handler(async (req) => {
+  const user = await requireRole(...CAN_DISPATCH, "admin");
+  const q = readQuery(req, boardQuerySchema);
+  const { yard, yards } = await pickYard(db(), user.organisationId, q.yard, user.homeYardId);
+  if (!yard || (q.yard && yard.code.toLowerCase() !== q.yard.toLowerCase())) {
+    throw new ApiError(404, `No yard with code ${q.yard ?? "(none)"}.`);
+  }
+  const day = q.date ?? tomorrowIn(yard.timezone);
+  await boardExtras.beforeLoad(db(), user.organisationId, yard.id, day);
+  const payload = await loadBoard(db(), { organisationId: user.organisationId, yard, yards, day });
+  await boardExtras.afterLoad(db(), payload);
+  return json(payload);
+});
