@@ -1,12 +1,57 @@
 // State is never told by colour alone: every badge carries an icon and a word.
 const STYLES = {
-  block: { cls: "bg-block-bg text-block", icon: "⛔", word: "Block" },
-  warn: { cls: "bg-warn-bg text-warn", icon: "▲", word: "Warn" },
-  clear: { cls: "bg-clear-bg text-clear", icon: "✓", word: "Clear" },
-  info: { cls: "bg-info-bg text-info", icon: "●", word: "Info" },
-  waived: { cls: "bg-waived-bg text-waived", icon: "✎", word: "Overridden" },
-  muted: { cls: "bg-paper-200 text-ink-500", icon: "○", word: "" },
+  block: { cls: "bg-block-bg text-block", word: "Block" },
+  warn: { cls: "bg-warn-bg text-warn", word: "Warn" },
+  clear: { cls: "bg-clear-bg text-clear", word: "Clear" },
+  info: { cls: "bg-info-bg text-info", word: "Info" },
+  waived: { cls: "bg-waived-bg text-waived", word: "Overridden" },
+  muted: { cls: "bg-paper-200 text-ink-500", word: "" },
 } as const;
+
+/** Shape-coded state icons (drawn, so they look the same on every device): a shape per state. */
+export function StateIcon({ tone, className = "h-3 w-3" }: { tone: Tone; className?: string }) {
+  const common = { className, viewBox: "0 0 12 12", "aria-hidden": true } as const;
+  switch (tone) {
+    case "block": // octagon with a bar: stop
+      return (
+        <svg {...common}>
+          <path d="M3.5 0.5h5l3 3v5l-3 3h-5l-3-3v-5z" fill="currentColor" />
+          <path d="M3 5.2h6v1.6H3z" fill="#fff" />
+        </svg>
+      );
+    case "warn": // triangle with a mark
+      return (
+        <svg {...common}>
+          <path d="M6 0.6l5.6 10.4H0.4z" fill="currentColor" />
+          <path d="M5.3 3.8h1.4v3.6H5.3zM5.3 8.3h1.4v1.3H5.3z" fill="#fff" />
+        </svg>
+      );
+    case "clear": // tick
+      return (
+        <svg {...common}>
+          <path d="M1 6.4l1.3-1.3 2.3 2.3L9.7 2.3 11 3.6 4.6 10z" fill="currentColor" />
+        </svg>
+      );
+    case "waived": // pen stroke
+      return (
+        <svg {...common}>
+          <path d="M8.3 0.8l2.9 2.9-7 7H1.3V7.8z" fill="currentColor" />
+        </svg>
+      );
+    case "info":
+      return (
+        <svg {...common}>
+          <circle cx="6" cy="6" r="5" fill="currentColor" />
+        </svg>
+      );
+    default:
+      return (
+        <svg {...common}>
+          <circle cx="6" cy="6" r="4.2" fill="none" stroke="currentColor" strokeWidth="1.6" />
+        </svg>
+      );
+  }
+}
 
 export type Tone = keyof typeof STYLES;
 
@@ -17,7 +62,7 @@ export function Badge({ tone, children, title }: { tone: Tone; children?: React.
       title={title}
       className={`inline-flex items-center gap-1 whitespace-nowrap rounded px-1.5 py-0.5 text-xs font-bold ${s.cls}`}
     >
-      <span aria-hidden="true">{s.icon}</span>
+      <StateIcon tone={tone} />
       {children ?? s.word}
     </span>
   );

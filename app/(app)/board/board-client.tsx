@@ -207,7 +207,7 @@ export function BoardClient({
   if (error && !data) {
     return (
       <div role="alert" className="card p-6">
-        <p className="font-bold text-block">⛔ The board could not be loaded.</p>
+        <p className="font-bold text-block">✖ The board could not be loaded.</p>
         <p className="mt-1 text-sm text-ink-700">{error.message}</p>
       </div>
     );
@@ -328,7 +328,7 @@ export function BoardClient({
 
       <DragOverlay dropAnimation={null}>
         {activeName ? (
-          <div className="rounded-md border border-copper bg-white px-2.5 py-1.5 text-sm font-bold shadow-lg">
+          <div data-testid="drag-overlay" className="rounded-md border border-copper bg-white px-2.5 py-1.5 text-sm font-bold shadow-lg">
             {activeName.name} <span className="text-xs font-semibold text-ink-500">{CLASSIFICATION_LABEL[activeName.classification]}</span>
           </div>
         ) : null}
@@ -346,7 +346,7 @@ export function BoardClient({
               toast.tone === "error" ? "bg-block text-white" : "bg-ink text-paper"
             }`}
           >
-            {toast.tone === "error" ? "⛔ " : "✓ "}
+            {toast.tone === "error" ? "✖ " : "✓ "}
             {toast.msg}
           </p>
         )}

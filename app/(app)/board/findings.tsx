@@ -102,7 +102,7 @@ export function OverrideDialog({
         <p className="mt-1 text-xs text-ink-500">{reason.trim().length} / 15 characters minimum</p>
         {error && (
           <p role="alert" className="mt-2 rounded bg-block-bg px-2 py-1 text-sm font-semibold text-block">
-            ⛔ {error}
+            ✖ {error}
           </p>
         )}
         <p className="mt-3 text-xs text-ink-500">

@@ -81,7 +81,7 @@ function SeatSlot({
         <div className="mt-0.5 text-xs text-ink-500">
           {seat.declinedBy ? (
             <span className="font-semibold text-block">
-              ⛔ Declined by {seat.declinedBy.name}
+              ✖ Declined by {seat.declinedBy.name}
               {seat.declinedBy.reason ? `: “${seat.declinedBy.reason}”` : ""} — refill
             </span>
           ) : (
@@ -91,7 +91,7 @@ function SeatSlot({
       )}
       {isOver && preview && (
         <p role="status" className={`mt-1 text-xs font-bold ${preview.length ? "text-block" : "text-clear"}`}>
-          {preview.length ? `⛔ Would block: ${[...new Set(preview.map((f) => f.rule))].join(", ")}` : "✓ No new block"}
+          {preview.length ? `✖ Would block: ${[...new Set(preview.map((f) => f.rule))].join(", ")}` : "✓ No new block"}
         </p>
       )}
       {a && worker?.phone && (a.noReply || a.status === "declined") && (

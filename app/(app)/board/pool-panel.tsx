@@ -34,7 +34,7 @@ function CredChip({ type, state }: { type: string; state: CredState }) {
       : state === "lapsing"
         ? "border-warn bg-warn-bg text-warn"
         : "border-rule text-ink-700";
-  const mark = state === "lapsed" ? "⛔ " : state === "lapsing" ? "▲ " : "";
+  const mark = state === "lapsed" ? "✖ " : state === "lapsing" ? "▲ " : "";
   return (
     <span
       className={`rounded border px-1 text-[11px] font-semibold leading-4 ${cls}`}
@@ -92,7 +92,7 @@ const WorkerCard = memo(function WorkerCard({
           ))}
       </div>
       <div className="mt-0.5 flex flex-wrap gap-1 text-[11px] font-semibold">
-        {pw.unavailableReason && <span className="rounded bg-block-bg px-1 text-block">⛔ On {pw.unavailableReason}</span>}
+        {pw.unavailableReason && <span className="rounded bg-block-bg px-1 text-block">✖ On {pw.unavailableReason}</span>}
         {short && <span className="rounded bg-warn-bg px-1 text-warn">▲ Rest {pw.restHours} h</span>}
         {pw.onCallTonight && <span className="rounded bg-info-bg px-1 text-info">● On call</span>}
         {placedOn.length > 0 && <span className="rounded bg-paper-200 px-1 text-ink-700">On {placedOn.join(", ")}</span>}
