@@ -7,7 +7,7 @@ export default async function Forbidden({ searchParams }: { searchParams: Promis
   const back = from && from.startsWith("/") && !from.startsWith("//") ? from : "/";
   return (
     <main className="mx-auto max-w-md p-8 text-center">
-      <p className="text-xs font-bold uppercase tracking-widest text-block">⛔ Not allowed</p>
+      <p className="text-xs font-bold uppercase tracking-widest text-block">✖ Not allowed</p>
       <h1 className="mt-2 text-xl font-bold">Your role cannot open this page.</h1>
       <p className="mt-2 text-sm text-ink-500">Ask an admin if you need access.</p>
       <Link href={back} className="btn-primary mt-6">

@@ -54,7 +54,7 @@ export function PolicyForm({ policy }: { policy: PolicyInput }) {
             {...form.register(f.name, { valueAsNumber: true })}
             aria-invalid={errors[f.name] ? true : undefined}
           />
-          {errors[f.name] && <p className="mt-1 text-xs font-semibold text-block">⛔ {String(errors[f.name]?.message)}</p>}
+          {errors[f.name] && <p className="mt-1 text-xs font-semibold text-block">✖ {String(errors[f.name]?.message)}</p>}
         </div>
       ))}
       <fieldset className="sm:col-span-2">

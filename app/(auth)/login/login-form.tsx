@@ -44,7 +44,7 @@ export function LoginForm() {
       </div>
       {error && (
         <p role="alert" className="rounded-md bg-block-bg px-3 py-2 text-sm font-medium text-block">
-          ⛔ {error}
+          ✖ {error}
         </p>
       )}
       <button type="submit" className="btn-primary w-full" disabled={busy}>
