@@ -29,7 +29,7 @@ export function LoginForm() {
   }
 
   return (
-    <form onSubmit={onSubmit} className="mt-6 space-y-4" noValidate>
+    <form onSubmit={onSubmit} method="post" className="mt-6 space-y-4" noValidate>
       <div>
         <label htmlFor="email" className="label">
           E-mail
