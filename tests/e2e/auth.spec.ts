@@ -25,7 +25,7 @@ test("a wrong password is refused without saying which part was wrong", async ({
   await page.getByLabel("E-mail").fill(a.email);
   await page.getByLabel("Password").fill("not-the-password");
   await page.getByRole("button", { name: "Sign in" }).click();
-  await expect(page.getByRole("alert")).toHaveText(/E-mail or password is not right/);
+  await expect(page.locator("form [role=alert]")).toHaveText(/E-mail or password is not right/);
   await expect(page).toHaveURL(/\/login/);
 });
 

@@ -17,6 +17,7 @@ async function openFindings(page: Page, order: string) {
 }
 
 test.describe.configure({ mode: "serial" });
+test.use({ viewport: { width: 1440, height: 1100 } });
 
 test("a rested, qualified climber raises no finding; a lapsed one raises CLIMB_CERT and Send crews stays off", async ({ page }) => {
   await signIn(page, "dispatcher");
@@ -89,8 +90,8 @@ test("the same drag done with the keyboard", async ({ page }) => {
 });
 
 test("a second dispatcher's board shows the change within 5 s", async ({ browser }) => {
-  const a = await browser.newContext();
-  const b = await browser.newContext();
+  const a = await browser.newContext({ viewport: { width: 1440, height: 1100 } });
+  const b = await browser.newContext({ viewport: { width: 1440, height: 1100 } });
   const pa = await a.newPage();
   const pb = await b.newPage();
   await signIn(pa, "dispatcher");

@@ -21,13 +21,14 @@ export async function signIn(page: Page, role: string, email?: string) {
 export async function drag(page: Page, from: string, to: string) {
   const source = page.locator(from).first();
   const target = page.locator(to).first();
+  // Both ends in view before the drag starts: scrolling mid-drag is the auto-scroller's job.
+  await target.scrollIntoViewIfNeeded();
   await source.scrollIntoViewIfNeeded();
   const s = await source.boundingBox();
   if (!s) throw new Error(`no box for ${from}`);
   await page.mouse.move(s.x + s.width / 2, s.y + s.height / 2);
   await page.mouse.down();
   await page.mouse.move(s.x + s.width / 2 + 8, s.y + s.height / 2 + 8, { steps: 4 });
-  await target.scrollIntoViewIfNeeded();
   const t = await target.boundingBox();
   if (!t) throw new Error(`no box for ${to}`);
   await page.mouse.move(t.x + t.width / 2, t.y + t.height / 2, { steps: 12 });

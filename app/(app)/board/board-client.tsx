@@ -293,7 +293,7 @@ export function BoardClient({
       <SafetyNote className="mb-4" />
 
       <div className="grid gap-4 lg:grid-cols-[320px_1fr]">
-        <aside className="card p-3 lg:sticky lg:top-3 lg:self-start">
+        <aside className="card p-3 lg:self-start">
           <PoolPanel payload={data} placedOn={placedOn} />
         </aside>
         <div className="grid content-start gap-3 md:grid-cols-2 2xl:grid-cols-3" data-testid="orders">
