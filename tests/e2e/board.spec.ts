@@ -12,8 +12,13 @@ function findingsOf(page: Page, order: string) {
 }
 
 async function openFindings(page: Page, order: string) {
-  const btn = findingsOf(page, order).getByRole("button", { name: /Show findings/ });
-  if (await btn.count()) await btn.click();
+  const card = findingsOf(page, order);
+  // Retried until the page has hydrated and the list is open.
+  await expect(async () => {
+    const show = card.getByRole("button", { name: /Show findings/ });
+    if (await show.count()) await show.click();
+    await expect(card.getByRole("button", { name: /Hide findings/ })).toBeVisible({ timeout: 1000 });
+  }).toPass({ timeout: 15_000 });
 }
 
 test.describe.configure({ mode: "serial" });
@@ -55,6 +60,7 @@ test("a rested, qualified climber raises no finding; a lapsed one raises CLIMB_C
 
 test("a supervisor overrides the CLIMB_CERT block with a written reason", async ({ page }) => {
   await signIn(page, "supervisor");
+  await page.goto("/board?yard=NOR"); // the supervisor has no home yard
   await openFindings(page, ORDER);
   const cert = findingsOf(page, ORDER).locator('[data-testid="finding-CLIMB_CERT"]');
   await cert.getByRole("button", { name: /Override with a reason/ }).click();
