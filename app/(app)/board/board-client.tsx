@@ -292,11 +292,11 @@ export function BoardClient({
 
       <SafetyNote className="mb-4" />
 
-      <div className="grid gap-4 lg:grid-cols-[320px_1fr]">
-        <aside className="card p-3 lg:self-start">
+      <div className="grid gap-4 md:grid-cols-[260px_minmax(0,1fr)] lg:grid-cols-[320px_minmax(0,1fr)]">
+        <aside className="card min-w-0 p-3 md:self-start">
           <PoolPanel payload={data} placedOn={placedOn} />
         </aside>
-        <div className="grid content-start gap-3 md:grid-cols-2 2xl:grid-cols-3" data-testid="orders">
+        <div className="grid min-w-0 content-start gap-3 xl:grid-cols-2 2xl:grid-cols-3" data-testid="orders">
           {orders.map((o) => (
             <OrderCardView
               key={o.id}
@@ -314,7 +314,7 @@ export function BoardClient({
           ))}
           {orders.length === 0 && <p className="card p-6 text-sm text-ink-500">No work orders for this yard on this day.</p>}
           {dayLevel.length > 0 && (
-            <section className="card p-3 md:col-span-2">
+            <section className="card p-3 xl:col-span-2">
               <h2 className="text-sm font-bold">Findings on other yards&apos; orders these workers share</h2>
               <ul className="mt-1 space-y-1">
                 {dayLevel.map((f) => (

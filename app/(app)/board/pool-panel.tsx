@@ -146,7 +146,7 @@ export function PoolPanel({ payload, placedOn }: { payload: BoardPayload; placed
           onChange={(e) => setText(e.target.value)}
         />
         <div className="grid grid-cols-3 gap-2">
-          <select aria-label="Classification" className="field px-2" value={classification} onChange={(e) => setClassification(e.target.value)}>
+          <select aria-label="Classification" className="field min-w-0 px-2" value={classification} onChange={(e) => setClassification(e.target.value)}>
             <option value="">Any class</option>
             {Object.entries(CLASSIFICATION_LABEL).map(([k, v]) => (
               <option key={k} value={k}>
@@ -154,7 +154,7 @@ export function PoolPanel({ payload, placedOn }: { payload: BoardPayload; placed
               </option>
             ))}
           </select>
-          <select aria-label="Credential" className="field px-2" value={cred} onChange={(e) => setCred(e.target.value)}>
+          <select aria-label="Credential" className="field min-w-0 px-2" value={cred} onChange={(e) => setCred(e.target.value)}>
             <option value="">Any credential</option>
             {Object.entries(CRED_LABEL).map(([k, v]) => (
               <option key={k} value={k}>
@@ -162,7 +162,7 @@ export function PoolPanel({ payload, placedOn }: { payload: BoardPayload; placed
               </option>
             ))}
           </select>
-          <select aria-label="Yard" className="field px-2" value={yard} onChange={(e) => setYard(e.target.value)}>
+          <select aria-label="Yard" className="field min-w-0 px-2" value={yard} onChange={(e) => setYard(e.target.value)}>
             <option value="">All yards</option>
             {payload.yards.map((y) => (
               <option key={y.id} value={y.id}>
@@ -204,7 +204,7 @@ function PoolList({ items, day, warnDays, minRest }: { items: PoolItem[]; day: s
   });
   if (!virtual) {
     return (
-      <div className="max-h-[70vh] space-y-1.5 overflow-y-auto pr-1 lg:max-h-[calc(100vh-330px)]">
+      <div className="max-h-[45vh] space-y-1.5 overflow-y-auto pr-1 md:max-h-[calc(100vh-330px)]">
         {items.map((it) => (
           <WorkerCard key={it.pw.id} item={it} day={day} warnDays={warnDays} minRest={minRest} />
         ))}
@@ -213,7 +213,7 @@ function PoolList({ items, day, warnDays, minRest }: { items: PoolItem[]; day: s
     );
   }
   return (
-    <div ref={parent} className="max-h-[70vh] overflow-y-auto pr-1 lg:max-h-[calc(100vh-330px)]">
+    <div ref={parent} className="max-h-[45vh] overflow-y-auto pr-1 md:max-h-[calc(100vh-330px)]">
       <div style={{ height: v.getTotalSize(), position: "relative" }}>
         {v.getVirtualItems().map((row) => (
           <div
