@@ -296,7 +296,7 @@ export function BoardClient({
         <aside className="card min-w-0 p-3 md:self-start">
           <PoolPanel payload={data} placedOn={placedOn} />
         </aside>
-        <div className="grid min-w-0 content-start gap-3 xl:grid-cols-2 2xl:grid-cols-3" data-testid="orders">
+        <div className="grid min-w-0 grid-cols-1 content-start gap-3 xl:grid-cols-2 2xl:grid-cols-3" data-testid="orders">
           {orders.map((o) => (
             <OrderCardView
               key={o.id}

@@ -139,7 +139,7 @@ export const OrderCardView = memo(function OrderCardView({
     <article
       data-testid={`order-${card.number}`}
       aria-label={`${card.number} ${card.title}`}
-      className={`card flex flex-col p-3 ${declined ? "ring-2 ring-block" : ""}`}
+      className={`card flex min-w-0 flex-col p-3 ${declined ? "ring-2 ring-block" : ""}`}
     >
       <header className="flex items-start justify-between gap-2">
         <div className="min-w-0">
