@@ -3,8 +3,8 @@
 // are lib/rules, the same engine the board and the API use.
 
 import { readFileSync } from "node:fs";
-import { checkDay } from "../lib/rules/engine";
 import { parseDayInput } from "../lib/rules/input";
+import { crewCheckReport } from "../lib/rules/report";
 
 function fail(headline: string, details: string[] = []): void {
   process.stderr.write(`crew-check: ${headline}\n${details.map((d) => `  ${d}\n`).join("")}`);
@@ -36,19 +36,7 @@ function main(args: string[]): void {
     fail("invalid input:", parsed.errors);
     return;
   }
-  const findings = checkDay(parsed.snapshot).map((f) => ({
-    rule: f.rule,
-    level: f.level,
-    workOrderId: f.workOrderId,
-    workerId: f.workerId,
-    message: f.message,
-    source: f.source,
-  }));
-  const summary = {
-    block: findings.filter((f) => f.level === "block").length,
-    warn: findings.filter((f) => f.level === "warn").length,
-  };
-  process.stdout.write(`${JSON.stringify({ findings, summary }, null, 2)}\n`);
+  process.stdout.write(`${JSON.stringify(crewCheckReport(parsed.snapshot), null, 2)}\n`);
 }
 
 main(process.argv.slice(2));

@@ -168,3 +168,39 @@ describe("overrides", () => {
     expect(r.body.error).toMatch(/locked/);
   });
 });
+
+describe("POST /api/crew-check", () => {
+  // The example day of the crew-check contract: one journeyman climbing alone on energized
+  // 12.47 kV work with an order minimum of 3 — CREW_MIN per 29 CFR 1910.269(l)(2)(i).
+  const day = {
+    timezone: "America/Chicago",
+    workers: [
+      {
+        id: "w-104",
+        name: "Rosa Delgado",
+        classification: "journeyman",
+        credentials: [{ type: "climbing", expiresOn: "2027-05-31" }],
+      },
+    ],
+    workOrders: [
+      { id: "wo-2201", title: "Change out 50 kVA transformer", start: "2027-04-06T07:00", end: "2027-04-06T15:30", workType: "pole_climb", voltageKv: 12.47, minCrew: 3 },
+    ],
+    assignments: [{ workOrderId: "wo-2201", workerId: "w-104", position: "climber" }],
+  };
+
+  it("answers the same report as the command, for dispatchers and supervisors only", async () => {
+    const r = await (await as("dispatcher")).json("/api/crew-check", "POST", day);
+    expect(r.status).toBe(200);
+    expect(r.body.findings.some((f: { rule: string; level: string }) => f.rule === "CREW_MIN" && f.level === "block")).toBe(true);
+    expect(Object.keys(r.body.findings[0]).sort()).toEqual(["level", "message", "rule", "source", "workOrderId", "workerId"]);
+    expect(r.body.summary.block).toBe(r.body.findings.filter((f: { level: string }) => f.level === "block").length);
+    expect((await (await as("hr")).json("/api/crew-check", "POST", day)).status).toBe(403);
+  });
+
+  it("names the bad field", async () => {
+    const bad = { ...day, workOrders: [{ ...day.workOrders[0], start: "tomorrow" }] };
+    const r = await (await as("supervisor")).json("/api/crew-check", "POST", bad);
+    expect(r.status).toBe(422);
+    expect(r.body.error).toMatch(/workOrders\[0\]\.start/);
+  });
+});
