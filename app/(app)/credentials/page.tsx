@@ -1,48 +1,42 @@
 import { requirePageRole } from "@/lib/auth/session";
+import { CAN_KEEP_CREDENTIALS } from "@/lib/auth/roles";
 import { db } from "@/lib/db";
-import { listCurrentCredentials } from "@/lib/data/credentials";
+import { listCredentials } from "@/lib/data/credentials";
+import { listTypes } from "@/lib/data/qualification-types";
+import { listYards } from "@/lib/data/yards";
 import { PageHeader } from "@/components/status";
-import { DaysLeft } from "@/components/days-left";
-import { daysBetween } from "@/lib/format";
-import { todayIn } from "@/lib/data/yards";
+import { CREDENTIAL_VIEWS, type CredentialView } from "@/lib/validation/credential";
+import { CredentialTabs } from "./tabs";
+import { CredentialsTable } from "./credentials-table";
+import { SendReminders } from "./send-reminders";
 
 export const metadata = { title: "Credentials" };
 
-export default async function CredentialsPage() {
+type Search = { view?: string; yard?: string; qualification?: string; q?: string };
+
+export default async function CredentialsPage({ searchParams }: { searchParams: Promise<Search> }) {
   const user = await requirePageRole("hr", "admin", "supervisor");
-  const rows = await listCurrentCredentials(db(), user.organisationId);
-  const today = todayIn("America/Chicago");
+  const sp = await searchParams;
+  const canEdit = CAN_KEEP_CREDENTIALS.includes(user.role);
+  const [rows, yards, types] = await Promise.all([
+    listCredentials(db(), user.organisationId),
+    listYards(db(), user.organisationId),
+    listTypes(db(), user.organisationId),
+  ]);
+  const view = (CREDENTIAL_VIEWS as readonly string[]).includes(sp.view ?? "") ? (sp.view as CredentialView) : "all";
   return (
     <>
-      <PageHeader eyebrow="Credentials" title="Qualifications on file" />
-      <div className="card overflow-x-auto">
-        <table className="w-full text-left text-sm">
-          <thead className="bg-paper-200 text-xs uppercase text-ink-500">
-            <tr>
-              <th className="px-3 py-2">Worker</th>
-              <th className="px-3 py-2">Yard</th>
-              <th className="px-3 py-2">Qualification</th>
-              <th className="px-3 py-2">Issued</th>
-              <th className="px-3 py-2">Expires</th>
-              <th className="px-3 py-2">Days left</th>
-            </tr>
-          </thead>
-          <tbody>
-            {rows.map((r) => (
-              <tr key={r.id} className="border-t border-rule">
-                <td className="px-3 py-2 font-semibold">{r.workerName}</td>
-                <td className="px-3 py-2">{r.yardCode}</td>
-                <td className="px-3 py-2">{r.typeName}</td>
-                <td className="px-3 py-2 tabular-nums">{r.issuedOn}</td>
-                <td className="px-3 py-2 tabular-nums">{r.expiresOn ?? "—"}</td>
-                <td className="px-3 py-2">
-                  <DaysLeft days={r.expiresOn ? daysBetween(today, r.expiresOn) : null} />
-                </td>
-              </tr>
-            ))}
-          </tbody>
-        </table>
-      </div>
+      <PageHeader eyebrow="Credentials" title="Qualifications on file">
+        {canEdit && <SendReminders />}
+      </PageHeader>
+      <CredentialTabs active="list" canEdit={canEdit} />
+      <CredentialsTable
+        rows={rows}
+        yards={yards.map((y) => ({ code: y.code, name: y.name }))}
+        types={types.map((t) => ({ code: t.code, name: t.name }))}
+        canEdit={canEdit}
+        initial={{ view, yard: sp.yard ?? "", qualification: sp.qualification ?? "", q: sp.q ?? "" }}
+      />
     </>
   );
 }

@@ -1,47 +1,28 @@
 import { requirePageRole } from "@/lib/auth/session";
+import { CAN_KEEP_CREDENTIALS } from "@/lib/auth/roles";
 import { db } from "@/lib/db";
 import { listWorkers } from "@/lib/data/workers";
-import { Badge, PageHeader } from "@/components/status";
-import { CLASSIFICATION_LABEL } from "@/lib/format";
+import { listYards } from "@/lib/data/yards";
+import { PageHeader } from "@/components/status";
+import { RosterClient } from "./roster-client";
 
 export const metadata = { title: "Roster" };
 
-export default async function RosterPage() {
+export default async function RosterPage({ searchParams }: { searchParams: Promise<{ edit?: string }> }) {
   const user = await requirePageRole("hr", "admin", "dispatcher", "supervisor");
-  const workers = await listWorkers(db(), user.organisationId);
+  const [workers, yards] = await Promise.all([listWorkers(db(), user.organisationId), listYards(db(), user.organisationId)]);
+  const { edit } = await searchParams;
+  const canEdit = CAN_KEEP_CREDENTIALS.includes(user.role);
   return (
     <>
-      <PageHeader eyebrow="Roster" title={`Workers (${workers.length})`} />
-      <div className="card overflow-x-auto">
-        <table className="w-full text-left text-sm">
-          <thead className="bg-paper-200 text-xs uppercase text-ink-500">
-            <tr>
-              <th className="px-3 py-2">Emp. no</th>
-              <th className="px-3 py-2">Name</th>
-              <th className="px-3 py-2">Classification</th>
-              <th className="px-3 py-2">Yard</th>
-              <th className="px-3 py-2">Phone</th>
-              <th className="px-3 py-2">E-mail</th>
-              <th className="px-3 py-2">Texts</th>
-              <th className="px-3 py-2">State</th>
-            </tr>
-          </thead>
-          <tbody>
-            {workers.map((w) => (
-              <tr key={w.id} className="border-t border-rule">
-                <td className="px-3 py-2 tabular-nums">{w.employeeNo}</td>
-                <td className="px-3 py-2 font-semibold">{w.name}</td>
-                <td className="px-3 py-2">{CLASSIFICATION_LABEL[w.classification]}</td>
-                <td className="px-3 py-2">{w.yardCode}</td>
-                <td className="px-3 py-2 tabular-nums">{w.phone ?? "—"}</td>
-                <td className="px-3 py-2">{w.email ?? "—"}</td>
-                <td className="px-3 py-2">{w.smsOptIn ? "Yes" : "Opted out"}</td>
-                <td className="px-3 py-2">{w.active ? <Badge tone="clear">Active</Badge> : <Badge tone="muted">Inactive</Badge>}</td>
-              </tr>
-            ))}
-          </tbody>
-        </table>
-      </div>
+      <PageHeader eyebrow="Roster" title={`Workers (${workers.filter((w) => w.active).length} active)`} />
+      <RosterClient
+        workers={workers}
+        yards={yards.map((y) => ({ id: y.id, code: y.code, name: y.name }))}
+        canEdit={canEdit}
+        canSeeCredentials={["hr", "admin", "supervisor"].includes(user.role)}
+        editId={canEdit && edit && /^\d+$/.test(edit) ? Number(edit) : null}
+      />
     </>
   );
 }

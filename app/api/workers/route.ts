@@ -1,0 +1,24 @@
+import { db } from "@/lib/db";
+import { handler, json, readJson, readQuery } from "@/lib/api/http";
+import { requireRole } from "@/lib/auth/session";
+import { createWorker, listWorkers } from "@/lib/data/workers";
+import { workerQuerySchema, workerSchema } from "@/lib/validation/worker";
+
+// GET: the roster (hr, admin, dispatcher, supervisor). POST: a new worker (hr, admin).
+export const GET = handler(async (req) => {
+  const user = await requireRole("hr", "admin", "dispatcher", "supervisor");
+  const q = readQuery(req, workerQuerySchema);
+  const workers = await listWorkers(db(), user.organisationId, {
+    q: q.q,
+    yardCode: q.yard,
+    activeOnly: q.active === "true",
+  });
+  return json({ workers: q.active === "false" ? workers.filter((w) => !w.active) : workers });
+});
+
+export const POST = handler(async (req) => {
+  const user = await requireRole("hr", "admin");
+  const input = await readJson(req, workerSchema);
+  const worker = await createWorker(db(), user, input);
+  return json({ worker }, 201);
+});

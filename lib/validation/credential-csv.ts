@@ -1,0 +1,191 @@
+import Papa from "papaparse";
+import {
+  IMPORT_ALIASES,
+  IMPORT_COLUMNS,
+  IMPORT_MAX_ROWS,
+  IMPORT_REQUIRED,
+  importRowSchema,
+  proposeExpiry,
+  type ImportIssue,
+} from "./credential";
+
+// The credentials CSV: parsing (papaparse) with true line numbers, and the row checks that
+// need only lookups handed in. Pure, so the import page (preview) and the route share it.
+
+export interface ImportRow {
+  line: number;
+  employee_no: string;
+  qualification: string;
+  issued_on: string;
+  expires_on?: string;
+}
+
+export interface ParsedCsv {
+  rows: ImportRow[];
+  issues: ImportIssue[];
+  ignoredColumns: string[];
+}
+
+const norm = (h: string) => h.replace(/^\uFEFF/, "").trim().toLowerCase().replace(/[\s-]+/g, "_");
+
+/** Parses the file's text. Line numbers are the file's own (header = line 1), multi-line cells included. */
+export function parseCredentialCsv(text: string): ParsedCsv {
+  const issues: ImportIssue[] = [];
+  const rows: ImportRow[] = [];
+  const ignoredColumns: string[] = [];
+  const src = text.replace(/^\uFEFF/, "");
+  let header: (string | null)[] | null = null;
+  let pos = 0;
+  let line = 1;
+  let tooMany = false;
+  Papa.parse<string[]>(src, {
+    header: false,
+    skipEmptyLines: false,
+    step: (res, parser) => {
+      const startLine = line;
+      const end = res.meta.cursor;
+      for (let i = pos; i < end; i++) if (src.charCodeAt(i) === 10) line++;
+      // The newline that ends this row belongs to it.
+      if (src.charCodeAt(end) === 10) {
+        line++;
+        pos = end + 1;
+      } else if (src.charCodeAt(end) === 13 && src.charCodeAt(end + 1) === 10) {
+        line++;
+        pos = end + 2;
+      } else pos = end;
+      const cells = res.data;
+      if (!cells.length || cells.every((c) => (c ?? "").trim() === "")) return;
+      if (!header) {
+        header = cells.map((h) => {
+          const key = IMPORT_ALIASES[norm(h)] ?? null;
+          if (!key && h.trim()) ignoredColumns.push(h.trim());
+          return key;
+        });
+        for (const col of IMPORT_REQUIRED) {
+          if (!header.includes(col)) issues.push({ line: startLine, field: col, message: "missing column in the header row" });
+        }
+        return;
+      }
+      if (rows.length >= IMPORT_MAX_ROWS) {
+        tooMany = true;
+        parser.abort();
+        return;
+      }
+      const rec: Record<string, string> = {};
+      header.forEach((key, i) => {
+        if (key && rec[key] === undefined) rec[key] = (cells[i] ?? "").trim();
+      });
+      rows.push({
+        line: startLine,
+        employee_no: rec.employee_no ?? "",
+        qualification: rec.qualification ?? "",
+        issued_on: rec.issued_on ?? "",
+        expires_on: rec.expires_on || undefined,
+      });
+    },
+  });
+  if (!header) issues.push({ line: 1, field: "(file)", message: `no header row; the first row names the columns (${IMPORT_COLUMNS.join(", ")})` });
+  else if (!rows.length && !issues.length) issues.push({ line: 2, field: "(file)", message: "no rows under the header" });
+  if (tooMany) issues.push({ line: 1, field: "(file)", message: `more than ${IMPORT_MAX_ROWS} rows; split the file` });
+  return { rows, issues, ignoredColumns };
+}
+
+export interface ImportLookups {
+  /** employee_no (lower case) → worker */
+  workers: Map<string, { id: number; timezone: string }>;
+  /** code (lower case) → type */
+  types: Map<string, { id: number; code: string; name: string; renewalMonths: number | null }>;
+  /** `${workerId}:${typeId}` → the current record */
+  current: Map<string, { id: number; issuedOn: string }>;
+  today: (timezone: string) => string;
+}
+
+export interface PlannedRow {
+  line: number;
+  workerId: number;
+  typeId: number;
+  issuedOn: string;
+  expiresOn: string | null;
+  /** The newest of its worker and qualification in the file: becomes current. */
+  isLatest: boolean;
+  /** The record it replaces: the existing current one for the first of a chain, else the previous file row. */
+  supersedes: { currentId: number } | { line: number } | null;
+}
+
+/** Checks every row against the lookups; returns all issues (line + field) and, when none, the plan. */
+export function planImport(rows: ImportRow[], lk: ImportLookups): { issues: ImportIssue[]; plan: PlannedRow[] } {
+  const issues: ImportIssue[] = [];
+  const ok: PlannedRow[] = [];
+  for (const row of rows) {
+    const parsed = importRowSchema.safeParse(row);
+    if (!parsed.success) {
+      for (const i of parsed.error.issues) issues.push({ line: row.line, field: String(i.path[0] ?? "(row)"), message: i.message });
+      continue;
+    }
+    const r = parsed.data;
+    let bad = false;
+    const worker = lk.workers.get(r.employee_no.toLowerCase());
+    if (!worker) {
+      issues.push({ line: row.line, field: "employee_no", message: `no worker with employee number ${r.employee_no}` });
+      bad = true;
+    }
+    const type = lk.types.get(r.qualification.toLowerCase());
+    if (!type) {
+      const known = [...lk.types.values()].map((t) => t.code).join(", ");
+      issues.push({ line: row.line, field: "qualification", message: `unknown qualification code "${r.qualification}" (known: ${known})` });
+      bad = true;
+    }
+    if (worker) {
+      const today = lk.today(worker.timezone);
+      if (r.issued_on > today) {
+        issues.push({ line: row.line, field: "issued_on", message: `after today (${today})` });
+        bad = true;
+      }
+    }
+    if (r.expires_on && r.expires_on < r.issued_on) {
+      issues.push({ line: row.line, field: "expires_on", message: "before issued_on" });
+      bad = true;
+    }
+    if (bad || !worker || !type) continue;
+    ok.push({
+      line: row.line,
+      workerId: worker.id,
+      typeId: type.id,
+      issuedOn: r.issued_on,
+      expiresOn: r.expires_on ?? proposeExpiry(r.issued_on, type.renewalMonths),
+      isLatest: false,
+      supersedes: null,
+    });
+  }
+  // Chains per worker and qualification, oldest first.
+  const groups = new Map<string, PlannedRow[]>();
+  for (const p of ok) {
+    const k = `${p.workerId}:${p.typeId}`;
+    const g = groups.get(k);
+    if (g) g.push(p);
+    else groups.set(k, [p]);
+  }
+  for (const [key, g] of groups) {
+    g.sort((a, b) => (a.issuedOn < b.issuedOn ? -1 : a.issuedOn > b.issuedOn ? 1 : a.line - b.line));
+    const cur = lk.current.get(key);
+    for (let i = 0; i < g.length; i++) {
+      const p = g[i];
+      if (i > 0 && g[i - 1].issuedOn === p.issuedOn) {
+        const first = Math.min(p.line, g[i - 1].line);
+        const later = Math.max(p.line, g[i - 1].line);
+        issues.push({ line: later, field: "issued_on", message: `same worker, qualification and issue date as line ${first}` });
+      }
+      if (cur && p.issuedOn <= cur.issuedOn) {
+        issues.push({
+          line: p.line,
+          field: "issued_on",
+          message: `not after the worker's current record (issued ${cur.issuedOn}); older history is not imported`,
+        });
+      }
+      p.supersedes = i === 0 ? (cur ? { currentId: cur.id } : null) : { line: g[i - 1].line };
+      p.isLatest = i === g.length - 1;
+    }
+  }
+  issues.sort((a, b) => a.line - b.line || a.field.localeCompare(b.field));
+  return { issues, plan: issues.length ? [] : ok };
+}
