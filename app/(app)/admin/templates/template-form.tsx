@@ -1,0 +1,120 @@
+"use client";
+
+import { zodResolver } from "@hookform/resolvers/zod";
+import { useRouter } from "next/navigation";
+import { useEffect, useState } from "react";
+import { useForm } from "react-hook-form";
+import { FieldError, FormAlert, applyIssues, sendJson } from "@/components/form-bits";
+import { POSITION_LABEL } from "@/lib/format";
+import type { WorkTypeView } from "@/lib/orders/types";
+import { POSITIONS, type Position } from "@/lib/rules/types";
+import { crewTemplateSchema, type CrewTemplateInput } from "@/lib/validation/order";
+
+const RULE_LABEL: Record<string, string> = {
+  pole_climb: "climbing",
+  bucket: "bucket truck",
+  digger_derrick: "digger derrick",
+  patrol: "patrol / inspection",
+  storm: "storm restoration",
+  other: "other",
+};
+
+/** One work type's crew template: default positions (exactly one lead) and minimum crew. */
+export function TemplateForm({ type }: { type: WorkTypeView }) {
+  const router = useRouter();
+  const [rows, setRows] = useState<Position[]>(type.positions);
+  const [add, setAdd] = useState<Position>("ground");
+  const [msg, setMsg] = useState<{ tone: "block" | "clear"; text: string } | null>(null);
+  const form = useForm<CrewTemplateInput>({
+    resolver: zodResolver(crewTemplateSchema as never) as never,
+    defaultValues: { name: type.name, minCrew: type.minCrew, digs: type.digs, positions: type.positions },
+  });
+  const { register, setValue, formState } = form;
+  const errors = formState.errors;
+  useEffect(() => {
+    setValue("positions", rows, { shouldDirty: true, shouldValidate: formState.isSubmitted });
+  }, [rows, setValue, formState.isSubmitted]);
+  const leads = rows.filter((r) => r === "lead").length;
+
+  async function onSubmit(values: CrewTemplateInput) {
+    setMsg(null);
+    const r = await sendJson(`/api/work-types/${type.id}`, "PUT", values);
+    if (!r.ok) return setMsg({ tone: "block", text: applyIssues(form, r.body) });
+    setMsg({ tone: "clear", text: "Saved. New orders of this type start with this crew." });
+    router.refresh();
+  }
+
+  return (
+    <form onSubmit={form.handleSubmit(onSubmit)} noValidate className="card space-y-3 p-4" aria-label={`Crew template: ${type.name}`}>
+      <div className="flex items-baseline justify-between gap-2">
+        <p className="text-xs font-bold uppercase tracking-widest text-copper">
+          {type.code} · rules read it as {RULE_LABEL[type.ruleType] ?? type.ruleType}
+        </p>
+      </div>
+      <div>
+        <label className="label" htmlFor={`wt-name-${type.id}`}>
+          Name
+        </label>
+        <input id={`wt-name-${type.id}`} className="field" {...register("name")} />
+        <FieldError msg={errors.name?.message} />
+      </div>
+      <div className="flex flex-wrap items-end gap-4">
+        <div className="w-32">
+          <label className="label" htmlFor={`wt-min-${type.id}`}>
+            Minimum crew
+          </label>
+          <input id={`wt-min-${type.id}`} type="number" min={1} max={30} className="field" {...register("minCrew", { valueAsNumber: true })} />
+          <FieldError msg={errors.minCrew?.message} />
+        </div>
+        <label className="flex items-center gap-2 pb-2 text-sm font-semibold">
+          <input type="checkbox" {...register("digs")} /> Digs (needs a locate ticket)
+        </label>
+      </div>
+      <div>
+        <p className="label">Default positions</p>
+        <ul className="space-y-1.5">
+          {rows.map((p, i) => (
+            <li key={i} className="flex items-center gap-2">
+              <select
+                aria-label={`${type.name} position ${i + 1}`}
+                className="field"
+                value={p}
+                onChange={(e) => setRows(rows.map((r, j) => (j === i ? (e.target.value as Position) : r)))}
+              >
+                {POSITIONS.map((x) => (
+                  <option key={x} value={x}>
+                    {POSITION_LABEL[x]}
+                    {x === "lead" ? " (employee in charge)" : ""}
+                  </option>
+                ))}
+              </select>
+              <button type="button" className="btn-quiet px-2" aria-label={`Remove ${POSITION_LABEL[p]}`} onClick={() => setRows(rows.filter((_, j) => j !== i))}>
+                ✕
+              </button>
+            </li>
+          ))}
+        </ul>
+        <div className="mt-2 flex items-center gap-2">
+          <select aria-label="Position to add" className="field w-auto" value={add} onChange={(e) => setAdd(e.target.value as Position)}>
+            {POSITIONS.map((x) => (
+              <option key={x} value={x}>
+                {POSITION_LABEL[x]}
+              </option>
+            ))}
+          </select>
+          <button type="button" className="btn-quiet" onClick={() => setRows([...rows, add])}>
+            Add position
+          </button>
+        </div>
+        <FieldError msg={errors.positions?.message as string | undefined} />
+        {leads !== 1 && !errors.positions && (
+          <p className="mt-1 text-xs font-semibold text-warn">▲ Exactly one lead position is needed (the employee in charge, who holds the job briefing).</p>
+        )}
+      </div>
+      {msg && <FormAlert tone={msg.tone}>{msg.text}</FormAlert>}
+      <button type="submit" className="btn-primary" disabled={formState.isSubmitting}>
+        Save template
+      </button>
+    </form>
+  );
+}

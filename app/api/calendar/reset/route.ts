@@ -1,0 +1,28 @@
+import { db } from "@/lib/db";
+import { ApiError, handler, json, readJson } from "@/lib/api/http";
+import { requireRole } from "@/lib/auth/session";
+import { audit } from "@/lib/data/audit";
+import { calendarUrlFor, newCalendarToken } from "@/lib/calendar";
+import { calendarResetSchema } from "@/lib/validation/time-record";
+
+// POST: a lineworker makes a new link for themself; hr and admin for anyone (workerId).
+// The old link stops working at once.
+export const POST = handler(async (req) => {
+  const user = await requireRole("lineworker", "hr", "admin");
+  const input = await readJson(req, calendarResetSchema);
+  let workerId = input.workerId;
+  if (user.role === "lineworker") {
+    if (!user.workerId) throw new ApiError(403, "Your sign-in is not linked to a worker.");
+    if (workerId !== undefined && workerId !== user.workerId) throw new ApiError(403, "You can reset only your own calendar link.");
+    workerId = user.workerId;
+  }
+  if (!workerId) throw new ApiError(422, "Name the worker.", { issues: [{ field: "workerId", message: "Name the worker." }] });
+  const token = newCalendarToken();
+  await db().transaction(async (trx) => {
+    const n = await trx("workers").where({ id: workerId, organisation_id: user.organisationId }).update({ calendar_token: token, updated_at: new Date() });
+    if (!n) throw new ApiError(404, "No such worker.");
+    // The token itself is a secret: the audit row says that it changed, not what to.
+    await audit(trx, user, user.organisationId, "calendar.reset", "worker", workerId!, {});
+  });
+  return json({ workerId, url: calendarUrlFor(token) });
+});

@@ -1,0 +1,13 @@
+import { db } from "@/lib/db";
+import { handler, json, readJson } from "@/lib/api/http";
+import { requireRole } from "@/lib/auth/session";
+import { createCallOut } from "@/lib/data/rotations";
+import { callOutSchema } from "@/lib/validation/rotation";
+
+// POST: dispatcher, supervisor. Times are wall clock in the rotation's yard (or the worker's).
+export const POST = handler(async (req) => {
+  const user = await requireRole("dispatcher", "supervisor");
+  const input = await readJson(req, callOutSchema);
+  const result = await db().transaction((trx) => createCallOut(trx, user, input));
+  return json(result, 201);
+});

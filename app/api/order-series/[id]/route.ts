@@ -1,0 +1,41 @@
+import { db } from "@/lib/db";
+import { ApiError, handler, json, readJson } from "@/lib/api/http";
+import { requireRole } from "@/lib/auth/session";
+import { listOrders, parseJson, seriesView } from "@/lib/data/orders";
+import { endSeries, updateSeries } from "@/lib/orders/series";
+import { seriesEditSchema } from "@/lib/validation/order";
+
+type Params = { id: string };
+
+const idOf = async (ctx: { params: Promise<Params> }) => {
+  const id = Number((await ctx.params).id);
+  if (!Number.isInteger(id) || id <= 0) throw new ApiError(404, "No such series.");
+  return id;
+};
+
+export const GET = handler<Params>(async (_req, ctx) => {
+  const user = await requireRole("dispatcher", "supervisor", "admin");
+  const id = await idOf(ctx);
+  const s = await db()("order_series").where({ id, organisation_id: user.organisationId }).first();
+  if (!s) throw new ApiError(404, "No such series.");
+  const orderIds = await db()("work_orders").where({ series_id: id }).pluck("id");
+  const occurrences = orderIds.length ? await listOrders(db(), user.organisationId, { ids: orderIds, limit: 1000 }) : [];
+  return json({ ...seriesView(s), template: parseJson(s.template, {}), yardId: Number(s.yard_id), occurrences });
+});
+
+// PATCH: dispatcher, supervisor. Regenerates future untouched occurrences; reports what it kept.
+export const PATCH = handler<Params>(async (req, ctx) => {
+  const user = await requireRole("dispatcher", "supervisor");
+  const id = await idOf(ctx);
+  const input = await readJson(req, seriesEditSchema);
+  const result = await db().transaction((trx) => updateSeries(trx, user, id, input));
+  return json(result);
+});
+
+// DELETE: ends the series. Future untouched occurrences are removed; staffed ones stay.
+export const DELETE = handler<Params>(async (_req, ctx) => {
+  const user = await requireRole("dispatcher", "supervisor");
+  const id = await idOf(ctx);
+  const result = await db().transaction((trx) => endSeries(trx, user, id));
+  return json(result);
+});

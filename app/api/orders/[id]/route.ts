@@ -1,0 +1,39 @@
+import { z } from "zod";
+import { db } from "@/lib/db";
+import { ApiError, handler, json, readJson, readQuery } from "@/lib/api/http";
+import { requireRole } from "@/lib/auth/session";
+import { cancelOrder, getOrder, updateOrder } from "@/lib/data/orders";
+import { orderPatchSchema } from "@/lib/validation/order";
+
+type Params = { id: string };
+
+const idOf = async (ctx: { params: Promise<Params> }) => {
+  const id = Number((await ctx.params).id);
+  if (!Number.isInteger(id) || id <= 0) throw new ApiError(404, "No such work order.");
+  return id;
+};
+
+export const GET = handler<Params>(async (_req, ctx) => {
+  const user = await requireRole("dispatcher", "supervisor", "admin");
+  const order = await getOrder(db(), user.organisationId, await idOf(ctx));
+  if (!order) throw new ApiError(404, "No such work order.");
+  return json(order);
+});
+
+// PATCH: dispatcher, supervisor. Needs the version last loaded; 409 with `current` when stale.
+export const PATCH = handler<Params>(async (req, ctx) => {
+  const user = await requireRole("dispatcher", "supervisor");
+  const id = await idOf(ctx);
+  const patch = await readJson(req, orderPatchSchema);
+  const order = await db().transaction((trx) => updateOrder(trx, user, id, patch));
+  return json(order);
+});
+
+// DELETE = cancel (the order and its history stay). ?version=N makes it a checked write.
+export const DELETE = handler<Params>(async (req, ctx) => {
+  const user = await requireRole("dispatcher", "supervisor");
+  const id = await idOf(ctx);
+  const { version } = readQuery(req, z.object({ version: z.coerce.number().int().positive().optional() }));
+  const order = await db().transaction((trx) => cancelOrder(trx, user, id, version));
+  return json(order);
+});

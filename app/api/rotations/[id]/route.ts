@@ -1,0 +1,37 @@
+import { db } from "@/lib/db";
+import { ApiError, handler, json, readJson } from "@/lib/api/http";
+import { requireRole } from "@/lib/auth/session";
+import { deleteRotation, listRotations, updateRotation } from "@/lib/data/rotations";
+import { rotationPatchSchema } from "@/lib/validation/rotation";
+
+type Params = { id: string };
+const idOf = async (ctx: { params: Promise<Params> }) => {
+  const id = Number((await ctx.params).id);
+  if (!Number.isInteger(id) || id <= 0) throw new ApiError(404, "No such rotation.");
+  return id;
+};
+
+export const GET = handler<Params>(async (_req, ctx) => {
+  const user = await requireRole("dispatcher", "supervisor", "hr", "admin");
+  const [rotation] = await listRotations(db(), user.organisationId, { id: await idOf(ctx), periods: 12 });
+  if (!rotation) throw new ApiError(404, "No such rotation.");
+  return json(rotation);
+});
+
+// PATCH: dispatcher, supervisor; `version` required (409 with `current` when stale).
+export const PATCH = handler<Params>(async (req, ctx) => {
+  const user = await requireRole("dispatcher", "supervisor");
+  const id = await idOf(ctx);
+  const patch = await readJson(req, rotationPatchSchema);
+  await db().transaction((trx) => updateRotation(trx, user, id, patch));
+  const [rotation] = await listRotations(db(), user.organisationId, { id });
+  return json(rotation);
+});
+
+// DELETE: dispatcher, supervisor. Recorded call-outs keep their time records.
+export const DELETE = handler<Params>(async (_req, ctx) => {
+  const user = await requireRole("dispatcher", "supervisor");
+  const id = await idOf(ctx);
+  await db().transaction((trx) => deleteRotation(trx, user, id));
+  return json({ deleted: id });
+});

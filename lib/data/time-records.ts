@@ -1,0 +1,228 @@
+// Time records: what each person actually worked (shifts, orders marked done, call-outs,
+// manual entries). The REST rule reads them; the Time page shows a week per worker.
+import type { Knex } from "knex";
+import { ApiError } from "@/lib/api/http";
+import { audit, type Actor } from "@/lib/data/audit";
+import { boardEvent } from "@/lib/data/events";
+import { getPolicy } from "@/lib/data/policies";
+import { fieldError, instant } from "@/lib/data/orders";
+import { daysTouched } from "@/lib/data/rotations";
+import { addDays, todayIn } from "@/lib/data/yards";
+import { epochToZonedDate, epochToZonedWallTime, zonedWallTimeToEpoch } from "@/lib/rules/time";
+import type { ManualTimeRecordInput } from "@/lib/validation/time-record";
+
+type Q = Knex | Knex.Transaction;
+const HOUR_MS = 3_600_000;
+const round2 = (n: number) => Math.round(n * 100) / 100;
+
+export type TimeKind = "shift" | "order" | "call_out" | "manual";
+
+export interface TimeRecordView {
+  id: number;
+  kind: TimeKind;
+  start: string;
+  end: string;
+  startLocal: string;
+  endLocal: string;
+  hours: number;
+  reason: string | null;
+  orderId: number | null;
+  orderNumber: string | null;
+  rotationName: string | null;
+}
+
+export interface WorkedInterval {
+  start: number;
+  end: number;
+}
+
+export interface DayTotal {
+  date: string;
+  records: TimeRecordView[];
+  /** Hours worked, overlapping records counted once, on the day the work started. */
+  hours: number;
+  overRegular: number;
+}
+
+export interface WeekTotals {
+  days: DayTotal[];
+  hours: number;
+  dailyOvertime: number;
+  weeklyOvertime: number;
+  overtime: number;
+}
+
+/** Monday (YYYY-MM-DD) of the week containing a date. */
+export function weekStart(date: string): string {
+  const d = new Date(Date.UTC(+date.slice(0, 4), +date.slice(5, 7) - 1, +date.slice(8, 10)));
+  return addDays(date, -((d.getUTCDay() + 6) % 7));
+}
+
+/**
+ * Daily and weekly totals. Overlapping records merge (an hour is worked once); each merged
+ * stretch counts on the local day it started (common practice for shifts that cross midnight).
+ * Overtime: hours beyond the regular day, plus straight-time hours beyond the regular week
+ * (so no hour counts as overtime twice).
+ */
+export function weekTotals(
+  records: { start: number; end: number; view: TimeRecordView }[],
+  week: string,
+  tz: string,
+  regular: { day: number; week: number },
+): WeekTotals {
+  const dates = Array.from({ length: 7 }, (_, i) => addDays(week, i));
+  const byDay = new Map(dates.map((d) => [d, { date: d, records: [] as TimeRecordView[], hours: 0, overRegular: 0 }]));
+  const sorted = [...records].sort((a, b) => a.start - b.start);
+  for (const r of sorted) byDay.get(epochToZonedDate(r.start, tz))?.records.push(r.view);
+  const merged: WorkedInterval[] = [];
+  for (const r of sorted) {
+    const last = merged[merged.length - 1];
+    if (last && r.start <= last.end) last.end = Math.max(last.end, r.end);
+    else merged.push({ start: r.start, end: r.end });
+  }
+  for (const m of merged) {
+    const d = byDay.get(epochToZonedDate(m.start, tz));
+    if (d) d.hours += (m.end - m.start) / HOUR_MS;
+  }
+  let straight = 0;
+  let daily = 0;
+  const days = dates.map((date) => {
+    const d = byDay.get(date)!;
+    const over = Math.max(0, d.hours - regular.day);
+    daily += over;
+    straight += d.hours - over;
+    return { ...d, hours: round2(d.hours), overRegular: round2(over) };
+  });
+  const weekly = Math.max(0, straight - regular.week);
+  return {
+    days,
+    hours: round2(days.reduce((s, d) => s + d.hours, 0)),
+    dailyOvertime: round2(daily),
+    weeklyOvertime: round2(weekly),
+    overtime: round2(daily + weekly),
+  };
+}
+
+export interface WorkerWeek {
+  worker: { id: number; name: string; employeeNo: string; yardCode: string; timezone: string };
+  week: string;
+  regularHoursDay: number;
+  regularHoursWeek: number;
+  totals: WeekTotals;
+}
+
+/** One worker's week (the week of `anyDay`, default today in the worker's yard). */
+export async function workerWeek(db: Q, organisationId: number, workerId: number, anyDay?: string): Promise<WorkerWeek | null> {
+  const w = await db("workers as w")
+    .join("yards as y", "y.id", "w.yard_id")
+    .where({ "w.id": workerId, "w.organisation_id": organisationId })
+    .first("w.id", "w.first_name", "w.last_name", "w.employee_no", "y.code", "y.timezone");
+  if (!w) return null;
+  const tz = String(w.timezone);
+  const week = weekStart(anyDay ?? todayIn(tz));
+  const from = zonedWallTimeToEpoch(`${week}T00:00`, tz);
+  const to = zonedWallTimeToEpoch(`${addDays(week, 7)}T00:00`, tz);
+  const rows = await db("time_records as t")
+    .leftJoin("work_orders as o", "o.id", "t.work_order_id")
+    .leftJoin("rotations as r", "r.id", "t.rotation_id")
+    .where("t.worker_id", workerId)
+    .where("t.start_at", ">=", new Date(from))
+    .where("t.start_at", "<", new Date(to))
+    .orderBy("t.start_at")
+    .select("t.*", "o.number as order_number", "r.name as rotation_name");
+  const policy = await getPolicy(db, organisationId);
+  const records = rows.map((r) => {
+    const s = new Date(r.start_at).getTime();
+    const e = new Date(r.end_at).getTime();
+    return {
+      start: s,
+      end: e,
+      view: {
+        id: Number(r.id),
+        kind: r.kind as TimeKind,
+        start: new Date(s).toISOString(),
+        end: new Date(e).toISOString(),
+        startLocal: epochToZonedWallTime(s, tz),
+        endLocal: epochToZonedWallTime(e, tz),
+        hours: round2((e - s) / HOUR_MS),
+        reason: r.reason ?? null,
+        orderId: r.work_order_id ? Number(r.work_order_id) : null,
+        orderNumber: r.order_number ?? null,
+        rotationName: r.rotation_name ?? null,
+      },
+    };
+  });
+  return {
+    worker: { id: Number(w.id), name: `${w.first_name} ${w.last_name}`, employeeNo: String(w.employee_no), yardCode: String(w.code), timezone: tz },
+    week,
+    regularHoursDay: policy.regularHoursDay,
+    regularHoursWeek: policy.regularHoursWeek,
+    totals: weekTotals(records, week, tz, { day: policy.regularHoursDay, week: policy.regularHoursWeek }),
+  };
+}
+
+/** A manual entry (reason required). Times are wall clock in the worker's yard zone. */
+export async function createManualRecord(trx: Knex.Transaction, actor: Actor, input: ManualTimeRecordInput) {
+  const org = actor.organisationId;
+  const w = await trx("workers as w")
+    .join("yards as y", "y.id", "w.yard_id")
+    .where({ "w.id": input.workerId, "w.organisation_id": org })
+    .forUpdate()
+    .first("w.id", "w.yard_id", "w.first_name", "w.last_name", "y.timezone");
+  if (!w) throw fieldError("workerId", "No such worker.");
+  const tz = String(w.timezone);
+  const start = instant(input.start, tz, "start");
+  const end = instant(input.end, tz, "end");
+  if (end <= start) throw fieldError("end", "The end must be after the start.");
+  const clash = await trx("time_records")
+    .where({ worker_id: w.id })
+    .whereIn("kind", ["call_out", "manual"])
+    .where("start_at", "<", new Date(end))
+    .where("end_at", ">", new Date(start))
+    .first("id", "start_at", "end_at");
+  if (clash) {
+    const at = (d: Date) => epochToZonedWallTime(new Date(d).getTime(), tz).replace("T", " ");
+    throw new ApiError(409, `${w.first_name} ${w.last_name} already has time recorded ${at(clash.start_at)} to ${at(clash.end_at)}.`, {
+      issues: [{ field: "start", message: "Overlaps time already recorded" }],
+    });
+  }
+  const [id] = await trx("time_records").insert({
+    worker_id: w.id,
+    start_at: new Date(start),
+    end_at: new Date(end),
+    kind: "manual",
+    reason: input.reason,
+    created_by: actor.id,
+  });
+  await audit(trx, actor, org, "time_record.create", "time_record", id, { workerId: Number(w.id), start: input.start, end: input.end, reason: input.reason });
+  for (const day of daysTouched(start, end, tz)) {
+    await boardEvent(trx, { organisationId: org, yardId: Number(w.yard_id), day, kind: "availability", payload: { workerId: Number(w.id), timeRecordId: Number(id) } });
+  }
+  return Number(id);
+}
+
+/** Removes a manual entry or a call-out (order records follow their order's status). */
+export async function deleteRecord(trx: Knex.Transaction, actor: Actor, id: number) {
+  const org = actor.organisationId;
+  const r = await trx("time_records as t")
+    .join("workers as w", "w.id", "t.worker_id")
+    .join("yards as y", "y.id", "w.yard_id")
+    .where({ "t.id": id, "w.organisation_id": org })
+    .first("t.*", "w.yard_id", "y.timezone");
+  if (!r) throw new ApiError(404, "No such time record.");
+  if (!["manual", "call_out"].includes(r.kind))
+    throw new ApiError(409, r.kind === "order" ? "This time comes from a work order marked done; change the order's actual times instead." : "Shift records are not removed here.");
+  await trx("time_records").where({ id }).delete();
+  const s = new Date(r.start_at).getTime();
+  const e = new Date(r.end_at).getTime();
+  await audit(trx, actor, org, "time_record.delete", "time_record", id, {
+    workerId: Number(r.worker_id),
+    kind: r.kind,
+    start: new Date(s).toISOString(),
+    end: new Date(e).toISOString(),
+    reason: r.reason ?? null,
+  });
+  for (const day of daysTouched(s, e, String(r.timezone))) {
+    await boardEvent(trx, { organisationId: org, yardId: Number(r.yard_id), day, kind: "availability", payload: { workerId: Number(r.worker_id), timeRecordId: id } });
+  }
+}

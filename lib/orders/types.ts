@@ -1,0 +1,83 @@
+// Work-order shapes passed from server pages and routes to the client. Plain JSON only.
+import type { Position } from "@/lib/rules/types";
+import type { OrderStatus } from "./status";
+
+export interface OrderSeat {
+  id: number;
+  position: Position;
+  sort: number;
+  /** The live assignment holding this seat, if any. */
+  worker: { id: number; name: string; status: string } | null;
+}
+
+export interface SeriesView {
+  id: number;
+  rrule: string;
+  description: string;
+  dtstartLocal: string;
+  durationMinutes: number;
+  exdates: string[];
+  active: boolean;
+  version: number;
+  materialisedThrough: string | null;
+}
+
+export interface OrderListItem {
+  id: number;
+  number: string;
+  title: string;
+  yardId: number;
+  yardCode: string;
+  timezone: string;
+  workTypeId: number;
+  workTypeName: string;
+  digs: boolean;
+  address: string | null;
+  structureNo: string | null;
+  start: string; // ISO instant
+  end: string;
+  startLocal: string; // YYYY-MM-DDTHH:mm in the yard's zone
+  endLocal: string;
+  workDate: string;
+  status: OrderStatus;
+  holdReason: string | null;
+  priority: number;
+  emergency: boolean;
+  energized: boolean;
+  voltageKv: number | null;
+  locateTicket: string | null;
+  locateValidThrough: string | null;
+  locateWarning: string | null;
+  seriesId: number | null;
+  positions: number;
+  staffed: number;
+  version: number;
+}
+
+export interface OrderView extends OrderListItem {
+  yardName: string;
+  workTypeCode: string;
+  ruleType: string;
+  crewException: string | null;
+  minCrew: number | null;
+  driverLicence: "cdl_a" | "cdl_b" | null;
+  notes: string | null;
+  briefingState: string;
+  actualStartLocal: string | null;
+  actualEndLocal: string | null;
+  occurrenceDate: string | null;
+  detached: boolean;
+  seats: OrderSeat[];
+  series: SeriesView | null;
+  timeRecords: { id: number; workerId: number; workerName: string; startLocal: string; endLocal: string; hours: number }[];
+}
+
+export interface WorkTypeView {
+  id: number;
+  code: string;
+  name: string;
+  ruleType: string;
+  minCrew: number;
+  digs: boolean;
+  positions: Position[];
+}
