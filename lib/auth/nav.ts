@@ -10,8 +10,12 @@ export interface NavItem {
 export const NAV: NavItem[] = [
   { href: "/board", label: "Board", roles: ["dispatcher", "supervisor", "admin"] },
   { href: "/me", label: "My week", roles: ["lineworker"] },
+  { href: "/orders", label: "Orders", roles: ["dispatcher", "supervisor", "admin"] },
+  { href: "/rotations", label: "Rotations", roles: ["dispatcher", "supervisor", "hr"] },
   { href: "/credentials", label: "Credentials", roles: ["hr", "admin", "supervisor"] },
   { href: "/roster", label: "Roster", roles: ["hr", "admin", "dispatcher", "supervisor"] },
+  { href: "/leave", label: "Leave", roles: ["hr", "supervisor", "dispatcher", "admin", "lineworker"] },
+  { href: "/time", label: "Time", roles: ["dispatcher", "supervisor", "hr", "admin", "lineworker"] },
   { href: "/audit", label: "Audit", roles: ["supervisor", "admin"] },
   { href: "/admin", label: "Admin", roles: ["admin"] },
 ];

@@ -47,6 +47,8 @@ export interface OrderCard {
   locateTicket: string | null;
   locateValidThrough: string | null;
   digs: boolean;
+  /** Underground-locate warning for orders that dig (missing ticket, lapses before the day). */
+  locateWarning: string | null;
   version: number;
   crewHash: string;
   seats: Seat[];
@@ -91,6 +93,8 @@ export interface BoardPayload {
   boardOrderIds: string[];
   findings: Finding[];
   overrides: OverrideView[];
+  /** On call the night before this day, per rotation. */
+  onCall: { rotationName: string; workerId: number; workerName: string; from: string; to: string }[];
   policy: { minRestHours: number; maxShiftHours: number; credentialWarnDays: number; replyDeadlineHours: number };
   cursor: number;
   fakesEnabled: boolean;

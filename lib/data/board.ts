@@ -5,6 +5,7 @@ import { findingKey } from "@/lib/board/types";
 import { findingsForOrders } from "@/lib/rules/engine";
 import { epochToZonedDate, zonedWallTimeToEpoch } from "@/lib/rules/time";
 import type { Assignment, DaySnapshot, Finding, Position, Worker, WorkOrder, WorkType } from "@/lib/rules/types";
+import { locateWarning } from "@/lib/orders/locate";
 import { latestEventId } from "./events";
 import { getPolicy } from "./policies";
 import { addDays, type Yard } from "./yards";
@@ -393,6 +394,12 @@ export async function loadBoard(
       locateTicket: o.locate_ticket,
       locateValidThrough: o.locate_valid_through,
       digs: Boolean(o.digs),
+      locateWarning: locateWarning({
+        digs: Boolean(o.digs),
+        locateTicket: o.locate_ticket,
+        locateValidThrough: o.locate_valid_through,
+        workDate: day,
+      }),
       version: o.version,
       crewHash: crewHash(seats.filter((s) => s.assignment).map((s) => ({ positionId: s.id, workerId: s.assignment!.workerId }))),
       seats,
@@ -428,6 +435,7 @@ export async function loadBoard(
     boardOrderIds,
     findings,
     overrides,
+    onCall: [],
     policy: {
       minRestHours: policy.minRestHours,
       maxShiftHours: policy.maxShiftHours,

@@ -1,3 +1,4 @@
+import Link from "next/link";
 import { requirePageRole } from "@/lib/auth/session";
 import { db } from "@/lib/db";
 import { PageHeader } from "@/components/status";
@@ -15,7 +16,11 @@ export default async function AdminPage() {
   ]);
   return (
     <>
-      <PageHeader eyebrow="Admin" title="Users and policies" />
+      <PageHeader eyebrow="Admin" title="Users and policies">
+        <Link href="/admin/templates" className="btn-quiet">
+          Crew templates
+        </Link>
+      </PageHeader>
       <div className="grid gap-6 lg:grid-cols-2">
         <section className="card p-4">
           <h2 className="mb-3 font-bold">Crew-rule policy</h2>

@@ -43,13 +43,11 @@ export function BoardClient({
   yardCode,
   initial,
   role,
-  locateWarnings,
 }: {
   day: string;
   yardCode: string;
   initial?: BoardPayload;
   role: string;
-  locateWarnings: Record<number, string | null>;
 }) {
   const router = useRouter();
   const path = usePathname();
@@ -290,6 +288,13 @@ export function BoardClient({
         )}
       </div>
 
+      {data.onCall.length > 0 && (
+        <p className="mb-3 text-sm text-ink-700" data-testid="on-call">
+          <span className="font-bold">On call tonight:</span>{" "}
+          {data.onCall.map((o) => `${o.workerName} (${o.rotationName})`).join(", ")} — a call-out can leave them short of rest.
+        </p>
+      )}
+
       <SafetyNote className="mb-4" />
 
       <div className="grid gap-4 md:grid-cols-[260px_minmax(0,1fr)] lg:grid-cols-[320px_minmax(0,1fr)]">
@@ -309,7 +314,8 @@ export function BoardClient({
               dragging={activeId !== null}
               canOverride={canOverride}
               onOverride={setOverriding}
-              locateWarning={locateWarnings[o.id] ?? null}
+              locateWarning={o.locateWarning}
+              canResend={role === "dispatcher" || role === "supervisor"}
             />
           ))}
           {orders.length === 0 && <p className="card p-6 text-sm text-ink-500">No work orders for this yard on this day.</p>}

@@ -5,7 +5,7 @@ import { memo, useState } from "react";
 import type { OrderCard as Card, OverrideView, Seat } from "@/lib/board/types";
 import { findingKey } from "@/lib/board/types";
 import type { Finding } from "@/lib/rules/types";
-import { Badge } from "@/components/status";
+import { Badge, StateIcon } from "@/components/status";
 import { CLASSIFICATION_LABEL, fmtTime, POSITION_LABEL } from "@/lib/format";
 import { seatId } from "./dnd";
 import { FindingRow } from "./findings";
@@ -24,16 +24,47 @@ export interface WorkerInfo {
   phone: string | null;
 }
 
+/** Re-send (issue 5): a fresh text and e-mail for one assignment already sent. */
+function ResendButton({ assignmentId, name }: { assignmentId: number; name: string }) {
+  const [state, setState] = useState<{ busy?: boolean; msg?: string; error?: boolean }>({});
+  return (
+    <span className="inline-flex items-center gap-1">
+      <button
+        type="button"
+        className="text-xs font-semibold text-ink-700 underline underline-offset-2 hover:text-copper disabled:opacity-50"
+        disabled={state.busy}
+        aria-label={`Re-send the text and e-mail to ${name}`}
+        data-testid={`resend-${assignmentId}`}
+        onClick={async () => {
+          setState({ busy: true });
+          const res = await fetch(`/api/assignments/${assignmentId}/resend`, { method: "POST" }).catch(() => null);
+          const body = res ? await res.json().catch(() => ({})) : {};
+          setState(res?.ok ? { msg: "✓ Queued" } : { msg: `⛔ ${body.error ?? "Not queued"}`, error: true });
+        }}
+      >
+        {state.busy ? "Re-sending…" : "Re-send"}
+      </button>
+      {state.msg && (
+        <span role="status" className={`text-[11px] font-semibold ${state.error ? "text-block" : "text-clear"}`}>
+          {state.msg}
+        </span>
+      )}
+    </span>
+  );
+}
+
 function SeatSlot({
   seat,
   worker,
   preview,
   dragging,
+  canResend = false,
 }: {
   seat: Seat;
   worker: WorkerInfo | undefined;
   preview: Finding[] | null;
   dragging: boolean;
+  canResend?: boolean;
 }) {
   const { setNodeRef: dropRef, isOver } = useDroppable({ id: seatId(seat.id), data: { positionId: seat.id } });
   const a = seat.assignment;
@@ -99,6 +130,11 @@ function SeatSlot({
           Call {worker.phone}
         </a>
       )}
+      {a && worker && canResend && ["sent", "delivered", "confirmed"].includes(a.status) && (
+        <div className="mt-0.5">
+          <ResendButton assignmentId={a.id} name={worker.name} />
+        </div>
+      )}
     </li>
   );
 }
@@ -114,6 +150,7 @@ export const OrderCardView = memo(function OrderCardView({
   canOverride,
   onOverride,
   locateWarning,
+  canResend = false,
 }: {
   card: Card;
   timezone: string;
@@ -125,6 +162,7 @@ export const OrderCardView = memo(function OrderCardView({
   canOverride: boolean;
   onOverride: (f: Finding) => void;
   locateWarning: string | null;
+  canResend?: boolean;
 }) {
   const [open, setOpen] = useState(false);
   const valid = new Map(overrides.filter((o) => o.valid).map((o) => [findingKey(o), o]));
@@ -174,7 +212,12 @@ export const OrderCardView = memo(function OrderCardView({
         </span>
         {onHold && <Badge tone="block">On hold{card.holdReason ? `: ${card.holdReason}` : ""}</Badge>}
         {!onHold && card.briefingState === "briefed" && <Badge tone="clear">Briefed</Badge>}
-        {locateWarning && <Badge tone="warn">{locateWarning}</Badge>}
+        {locateWarning && (
+          <p className="flex w-full items-start gap-1 rounded bg-warn-bg px-1.5 py-0.5 text-xs font-semibold text-warn">
+            <StateIcon tone="warn" className="mt-0.5 h-3 w-3 shrink-0" />
+            {locateWarning}
+          </p>
+        )}
       </div>
       <ul className="mt-2 grid gap-1.5 sm:grid-cols-2">
         {card.seats.map((s) => (
@@ -184,6 +227,7 @@ export const OrderCardView = memo(function OrderCardView({
             worker={s.assignment ? workers.get(s.assignment.workerId) : undefined}
             preview={previewFor(s.id)}
             dragging={dragging}
+            canResend={canResend}
           />
         ))}
       </ul>

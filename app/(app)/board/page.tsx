@@ -2,7 +2,7 @@ import { requirePageRole } from "@/lib/auth/session";
 import { db } from "@/lib/db";
 import { pickYard, tomorrowIn } from "@/lib/data/yards";
 import { loadBoard } from "@/lib/data/board";
-import { boardExtras } from "@/lib/board/extras";
+import { markOnCall, prepareBoardDay } from "@/lib/board/extras";
 import { BoardClient } from "./board-client";
 
 export const metadata = { title: "Board" };
@@ -14,8 +14,8 @@ export default async function BoardPage({ searchParams }: { searchParams: Promis
   const { yard, yards } = await pickYard(db(), user.organisationId, sp.yard, user.homeYardId);
   if (!yard) return <p className="card p-6">No yards are set up yet. An admin adds them.</p>;
   const day = sp.date && /^\d{4}-\d{2}-\d{2}$/.test(sp.date) ? sp.date : tomorrowIn(yard.timezone);
-  await boardExtras.beforeLoad(db(), user.organisationId, yard.id, day);
+  await prepareBoardDay(db(), user.organisationId, yard.id, day);
   const initial = await loadBoard(db(), { organisationId: user.organisationId, yard, yards, day });
-  await boardExtras.afterLoad(db(), initial);
-  return <BoardClient day={day} yardCode={yard.code} initial={initial} role={user.role} locateWarnings={{}} />;
+  await markOnCall(db(), initial);
+  return <BoardClient day={day} yardCode={yard.code} initial={initial} role={user.role} />;
 }

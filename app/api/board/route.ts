@@ -5,7 +5,7 @@ import { CAN_DISPATCH } from "@/lib/auth/roles";
 import { boardQuerySchema } from "@/lib/validation/board";
 import { pickYard, tomorrowIn } from "@/lib/data/yards";
 import { loadBoard } from "@/lib/data/board";
-import { boardExtras } from "@/lib/board/extras";
+import { markOnCall, prepareBoardDay } from "@/lib/board/extras";
 
 export const dynamic = "force-dynamic";
 
@@ -17,8 +17,8 @@ export const GET = handler(async (req) => {
     throw new ApiError(404, `No yard with code ${q.yard ?? "(none)"}.`);
   }
   const day = q.date ?? tomorrowIn(yard.timezone);
-  await boardExtras.beforeLoad(db(), user.organisationId, yard.id, day);
+  await prepareBoardDay(db(), user.organisationId, yard.id, day);
   const payload = await loadBoard(db(), { organisationId: user.organisationId, yard, yards, day });
-  await boardExtras.afterLoad(db(), payload);
+  await markOnCall(db(), payload);
   return json(payload);
 });
