@@ -26,7 +26,39 @@ async function signIn(page: Page, email: string, password: string) {
   }).toPass({ timeout: 40_000 });
 }
 
-test("HR renews Lyle Kowalczyk's lapsed climbing evaluation with evidence; it shows as current with the new expiry", async ({ page }) => {
+/** A day 20 days from today in North Yard's zone (America/Chicago), away from the demo's tomorrow. */
+function farDay() {
+  const today = new Intl.DateTimeFormat("en-CA", { timeZone: "America/Chicago" }).format(new Date());
+  const [y, m, d] = today.split("-").map(Number);
+  return new Date(Date.UTC(y, m - 1, d + 20)).toISOString().slice(0, 10);
+}
+
+test("HR renews Lyle Kowalczyk's lapsed climbing evaluation with evidence; it shows as current with the new expiry", async ({ page, browser }) => {
+  // A dispatcher has Lyle on a climbing order: the board shows his CLIMB_CERT block.
+  const dispatcher = await browser.newContext({ viewport: { width: 1440, height: 1000 } });
+  const board = await dispatcher.newPage();
+  await signIn(board, "dispatch@cedarprairie.example", "board-north-26");
+  const day = farDay();
+  const types = await (await board.request.get("/api/work-types")).json();
+  const climbType = (types.workTypes ?? types).find((t: { code: string }) => t.code === "pole_climb");
+  const created = await board.request.post("/api/orders", {
+    data: { title: "Renewal check: climb at pole N-7001", yardId: 1, workTypeId: climbType.id, start: `${day}T07:00`, end: `${day}T12:00`, positions: [{ position: "climber" }] },
+  });
+  expect(created.status()).toBe(201);
+  const dayBoard = await (await board.request.get(`/api/board?date=${day}&yard=NOR`)).json();
+  const card = dayBoard.orders.find((o: { title: string }) => o.title === "Renewal check: climb at pole N-7001");
+  const placed = await board.request.post("/api/assignments", { data: { positionId: card.seats[0].id, workerId: LYLE } });
+  expect(placed.status()).toBe(201);
+  await board.goto(`/board?date=${day}&yard=NOR`);
+  const cardView = board.getByTestId(`order-${card.number}`);
+  await expect(async () => {
+    const show = cardView.getByRole("button", { name: /Show findings/ });
+    if (await show.count()) await show.click();
+    await expect(cardView.getByRole("button", { name: /Hide findings/ })).toBeVisible({ timeout: 1000 });
+  }).toPass({ timeout: 15_000 });
+  const certFinding = cardView.locator('[data-testid="finding-CLIMB_CERT"]');
+  await expect(certFinding).toContainText("Lyle Kowalczyk");
+
   await signIn(page, "hr@cedarprairie.example", "creds-cedar-26");
 
   // Find him from the desk's list, as HR would.
@@ -76,6 +108,10 @@ test("HR renews Lyle Kowalczyk's lapsed climbing evaluation with evidence; it sh
   await expect(page.getByRole("button", { name: /^Lapsed/ })).toHaveAttribute("aria-pressed", "true");
   await expect(page.getByRole("link", { name: "Brent Haugland" }).first()).toBeVisible();
   await expect(page.getByRole("link", { name: "Lyle Kowalczyk" })).toHaveCount(0);
+
+  // The dispatcher's open board drops the block without a reload (board events, within 5 s).
+  await expect(certFinding).toHaveCount(0, { timeout: 5_000 });
+  await dispatcher.close();
 });
 
 test("a lineworker visiting another worker's credentials page is refused", async ({ page }) => {
