@@ -1,0 +1,50 @@
+import { db } from "@/lib/db";
+import { ApiError, handler, json, readJson, readQuery } from "@/lib/api/http";
+import { requireRole } from "@/lib/auth/session";
+import { fakesEnabled, inboundWebhookUrl, smsFakeBase } from "@/lib/notify/config";
+import { phoneQuerySchema, phoneReplySchema } from "@/lib/validation/notify";
+
+export const dynamic = "force-dynamic";
+
+// The phone simulator's back end (demo only, FAKES_ENABLED=1): reads a phone's texts from the
+// SMS fake, and asks the fake to deliver a reply to the real, signature-checked webhook.
+const ROLES = ["dispatcher", "supervisor", "admin"] as const;
+
+async function fake(path: string, init?: RequestInit) {
+  try {
+    const res = await fetch(`${smsFakeBase()}${path}`, { ...init, signal: AbortSignal.timeout(20_000), cache: "no-store" });
+    const body = await res.json().catch(() => ({}));
+    if (!res.ok) throw new ApiError(502, `The SMS fake answered ${res.status}: ${body.error ?? "no detail"}`);
+    return body;
+  } catch (err) {
+    if (err instanceof ApiError) throw err;
+    throw new ApiError(503, "The SMS fake is not reachable. Start it with scripts/start (or node --import tsx scripts/fakes/run.ts).");
+  }
+}
+
+async function ownPhone(organisationId: number, phone: string) {
+  const w = await db()("workers").where({ organisation_id: organisationId, phone_e164: phone }).first("id");
+  if (!w) throw new ApiError(404, "No worker in your organisation has that phone number.");
+}
+
+export const GET = handler(async (req) => {
+  const user = await requireRole(...ROLES);
+  if (!fakesEnabled()) throw new ApiError(404, "The phone simulator is off (FAKES_ENABLED is not 1).");
+  const { phone } = readQuery(req, phoneQuerySchema);
+  await ownPhone(user.organisationId, phone);
+  const body = await fake(`/_fake/messages?phone=${encodeURIComponent(phone)}`);
+  return json({ phone, messages: body.messages ?? [] });
+});
+
+export const POST = handler(async (req) => {
+  const user = await requireRole(...ROLES);
+  if (!fakesEnabled()) throw new ApiError(404, "The phone simulator is off (FAKES_ENABLED is not 1).");
+  const input = await readJson(req, phoneReplySchema);
+  await ownPhone(user.organisationId, input.from);
+  const body = await fake("/_fake/inbound", {
+    method: "POST",
+    headers: { "content-type": "application/json" },
+    body: JSON.stringify({ from: input.from, body: input.body, webhookUrl: inboundWebhookUrl() }),
+  });
+  return json({ status: body.status, replies: body.replies ?? [] });
+});

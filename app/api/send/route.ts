@@ -1,0 +1,15 @@
+import { db } from "@/lib/db";
+import { handler, json, readJson } from "@/lib/api/http";
+import { requireRole } from "@/lib/auth/session";
+import { CAN_DISPATCH } from "@/lib/auth/roles";
+import { sendCrewsSchema } from "@/lib/validation/notify";
+import { sendCrews } from "@/lib/notify/send";
+
+export const dynamic = "force-dynamic";
+
+// Send crews for one yard and day: 409 with the blocks while any remains unresolved.
+export const POST = handler(async (req) => {
+  const user = await requireRole(...CAN_DISPATCH);
+  const input = await readJson(req, sendCrewsSchema);
+  return json(await sendCrews(db(), user, input));
+});
