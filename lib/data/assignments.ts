@@ -5,6 +5,7 @@ import { findingsForOrders } from "@/lib/rules/engine";
 import type { Finding } from "@/lib/rules/types";
 import { audit, type Actor } from "./audit";
 import { buildSnapshot, crewHash, liveAssignments, orderQuery, type OrderRow } from "./board";
+import { refreshBriefingState } from "./briefings";
 import { boardEvent } from "./events";
 
 // Assignment writes. Each runs in one READ COMMITTED transaction that locks the orders it
@@ -129,6 +130,8 @@ async function crewChanged(trx: Knex.Transaction, orderId: number) {
     .whereNull("lapsed_at")
     .whereNot("crew_hash", hash)
     .update({ lapsed_at: new Date() });
+  // A new crew member has not acknowledged the briefing yet: the order is no longer "briefed".
+  await refreshBriefingState(trx, orderId);
   return { hash, lapsed };
 }
 

@@ -210,8 +210,20 @@ export const OrderCardView = memo(function OrderCardView({
           {filled}/{card.seats.length} seats · {people} {people === 1 ? "person" : "people"}
           {card.minCrew ? ` · min ${card.minCrew}` : ""}
         </span>
-        {onHold && <Badge tone="block">On hold{card.holdReason ? `: ${card.holdReason}` : ""}</Badge>}
+        {onHold && (
+          <p className="flex w-full items-start gap-1 rounded bg-block-bg px-1.5 py-0.5 text-xs font-bold text-block" data-testid="hold">
+            <StateIcon tone="block" className="mt-0.5 h-3 w-3 shrink-0" />
+            On hold{card.holdReason ? `: ${card.holdReason}` : ""}
+          </p>
+        )}
         {!onHold && card.briefingState === "briefed" && <Badge tone="clear">Briefed</Badge>}
+        {!onHold && card.briefingState === "not_started" && <Badge tone="muted">Briefing not started</Badge>}
+        <a href={`/orders/${card.id}/briefing`} className="text-[11px] font-semibold text-info underline underline-offset-2">
+          Briefing
+        </a>
+        <a href={`/orders/${card.id}`} className="text-[11px] font-semibold text-info underline underline-offset-2">
+          Order
+        </a>
         {locateWarning && (
           <p className="flex w-full items-start gap-1 rounded bg-warn-bg px-1.5 py-0.5 text-xs font-semibold text-warn">
             <StateIcon tone="warn" className="mt-0.5 h-3 w-3 shrink-0" />
