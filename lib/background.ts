@@ -3,6 +3,7 @@
 // (SKIP LOCKED), and a daily job claims its day in job_claims before it runs.
 import { db } from "@/lib/db";
 import { startDeliveryLoop } from "@/lib/notify/outbox";
+import { runDailyReminders } from "@/lib/reminders";
 
 export interface BackgroundJob {
   name: string;
@@ -10,11 +11,11 @@ export interface BackgroundJob {
   run: () => Promise<void>;
 }
 
-/**
- * Periodic jobs. Add one here (e.g. the credential reminders:
- * `{ name: "reminders", everyMs: 60_000, run: async () => { const { runDailyReminders } = await import("./reminders"); await runDailyReminders(db()); } }`).
- */
-export const backgroundJobs: BackgroundJob[] = [];
+/** Periodic jobs; each tick is cheap when there is nothing to do. */
+export const backgroundJobs: BackgroundJob[] = [
+  // Once a day (claimed in job_claims, so one instance does it): credential reminders and HR's digest.
+  { name: "credential-reminders", everyMs: 60_000, run: async () => void (await runDailyReminders(db())) },
+];
 
 const g = globalThis as unknown as { gafflineBackground?: boolean };
 
