@@ -17,11 +17,14 @@ export async function signIn(page: Page, role: string, email?: string) {
   return a;
 }
 
-/** Drags with the mouse in small steps, as a person would (dnd-kit needs real moves). */
+/**
+ * Drags with the mouse in small steps, as a person would (dnd-kit needs real moves). The
+ * board auto-scrolls while the pointer is near the window's edge, so the target is measured
+ * again just before the pointer goes to it.
+ */
 export async function drag(page: Page, from: string, to: string) {
   const source = page.locator(from).first();
   const target = page.locator(to).first();
-  // Both ends in view before the drag starts: scrolling mid-drag is the auto-scroller's job.
   await target.scrollIntoViewIfNeeded();
   await source.scrollIntoViewIfNeeded();
   const s = await source.boundingBox();
@@ -29,10 +32,18 @@ export async function drag(page: Page, from: string, to: string) {
   await page.mouse.move(s.x + s.width / 2, s.y + s.height / 2);
   await page.mouse.down();
   await page.mouse.move(s.x + s.width / 2 + 8, s.y + s.height / 2 + 8, { steps: 4 });
-  const t = await target.boundingBox();
-  if (!t) throw new Error(`no box for ${to}`);
-  await page.mouse.move(t.x + t.width / 2, t.y + t.height / 2, { steps: 12 });
-  await page.mouse.move(t.x + t.width / 2 + 1, t.y + t.height / 2 + 1, { steps: 2 });
+  const view = page.viewportSize()!;
+  // Away from the edges, so auto-scroll stops; then to the target wherever it now is.
+  await page.mouse.move(view.width / 2, view.height / 2, { steps: 8 });
+  await page.waitForTimeout(150);
+  for (let i = 0; i < 3; i++) {
+    const t = await target.boundingBox();
+    if (!t) throw new Error(`no box for ${to}`);
+    await page.mouse.move(t.x + t.width / 2, t.y + t.height / 2, { steps: 10 });
+    await page.waitForTimeout(100);
+    const again = await target.boundingBox();
+    if (again && Math.abs(again.y - t.y) < 2 && Math.abs(again.x - t.x) < 2) break;
+  }
   return {
     drop: async () => {
       await page.mouse.up();
