@@ -40,12 +40,16 @@ test("a rested, qualified climber raises no finding; a lapsed one raises CLIMB_C
 
   // Back to the pool, then the lapsed climber.
   const d2 = await drag(page, `[data-testid="order-${ORDER}"] li[data-position="climber"] [data-testid^="seated-"]`, '[data-testid="pool-drop"]');
+  const removed = page.waitForResponse((r) => r.url().includes("/api/assignments/") && r.request().method() === "DELETE");
   await d2.drop();
   await expect(climber).toContainText("Open");
+  expect((await removed).status()).toBe(200);
   const d3 = await drag(page, '[data-testid="pool-worker-CP-1006"]', `[data-testid="order-${ORDER}"] li[data-position="climber"]`);
   await expect(climber.getByRole("status")).toHaveText(/Would block: .*CLIMB_CERT/);
+  const placed = page.waitForResponse((r) => r.url().endsWith("/api/assignments") && r.request().method() === "POST");
   await d3.drop();
   await expect(climber).toContainText("Brent Haugland");
+  expect((await placed).status()).toBe(201);
   await page.reload();
   await openFindings(page, ORDER);
   const cert = findingsOf(page, ORDER).locator('[data-testid="finding-CLIMB_CERT"]');

@@ -17,7 +17,7 @@ import {
 } from "@dnd-kit/core";
 import { useQueryClient } from "@tanstack/react-query";
 import { usePathname, useRouter } from "next/navigation";
-import { useCallback, useMemo, useState } from "react";
+import { useCallback, useEffect, useMemo, useState } from "react";
 import type { BoardPayload, OrderCard } from "@/lib/board/types";
 import { findingKey } from "@/lib/board/types";
 import { findingsForOrders } from "@/lib/rules/engine";
@@ -31,6 +31,7 @@ import { PoolPanel } from "./pool-panel";
 import { FindingRow, OverrideDialog } from "./findings";
 import { call, HttpError, useBoardData, useBoardMutations, useEngine, useLiveEvents, useToast, type Change } from "./use-board";
 import { SendCrewsButton } from "./send-crews";
+import { FillPanel } from "./fill-panel";
 
 // Pointer first (what is under the finger or cursor), rectangles for the keyboard.
 const collision: CollisionDetection = (args) => {
@@ -60,6 +61,14 @@ export function BoardClient({
   const [overId, setOverId] = useState<string | null>(null);
   const [overriding, setOverriding] = useState<Finding | null>(null);
   useLiveEvents(key, data?.cursor, activeId !== null || mutation.isPending);
+
+  // Leaving the page while a change is still on its way would lose it: ask first.
+  useEffect(() => {
+    if (!mutation.isPending) return;
+    const warn = (e: BeforeUnloadEvent) => e.preventDefault();
+    window.addEventListener("beforeunload", warn);
+    return () => window.removeEventListener("beforeunload", warn);
+  }, [mutation.isPending]);
 
   const sensors = useSensors(
     useSensor(MouseSensor, { activationConstraint: { distance: 4 } }),
@@ -264,6 +273,7 @@ export function BoardClient({
               </option>
             ))}
           </select>
+          <FillPanel day={day} yard={yardCode} role={role} />
           <SendCrewsButton day={day} yard={yardCode} unresolved={unresolved.length} role={role} onDone={() => qc.invalidateQueries({ queryKey: key })} notify={notify} />
         </div>
       </div>
