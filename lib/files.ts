@@ -14,8 +14,9 @@ export { ALLOWED_UPLOADS, MAX_UPLOAD_BYTES, checkFileName };
 // outside public/ under UPLOAD_DIR/<sha256 of the content>; the original name is data in
 // the files table and is only ever sent back in a Content-Disposition header.
 
+// The upload folder is chosen at run time; the comments tell the bundler not to trace it.
 export function uploadDir(): string {
-  return process.env.UPLOAD_DIR || path.join(process.cwd(), ".data", "uploads");
+  return process.env.UPLOAD_DIR || path.join(/*turbopackIgnore: true*/ process.cwd(), ".data", "uploads");
 }
 
 export type UploadVerdict =
@@ -68,18 +69,18 @@ export const sha256 = (bytes: Uint8Array) => createHash("sha256").update(bytes).
 /** Writes the bytes once under their hash (atomically); returns whether this call created the file. */
 async function putBlob(hash: string, bytes: Uint8Array): Promise<boolean> {
   const dir = uploadDir();
-  await mkdir(dir, { recursive: true, mode: 0o700 });
-  const target = path.join(dir, hash);
+  await mkdir(/*turbopackIgnore: true*/ dir, { recursive: true, mode: 0o700 });
+  const target = path.join(/*turbopackIgnore: true*/ dir, hash);
   try {
-    await stat(target);
+    await stat(/*turbopackIgnore: true*/ target);
     return false; // same content already stored
   } catch {
     /* not there yet */
   }
-  const tmp = path.join(dir, `.${hash}.${randomBytes(6).toString("hex")}.tmp`);
+  const tmp = path.join(/*turbopackIgnore: true*/ dir, `.${hash}.${randomBytes(6).toString("hex")}.tmp`);
   try {
-    await writeFile(tmp, bytes, { mode: 0o600 });
-    await rename(tmp, target);
+    await writeFile(/*turbopackIgnore: true*/ tmp, bytes, { mode: 0o600 });
+    await rename(/*turbopackIgnore: true*/ tmp, target);
   } catch (err) {
     await rm(tmp, { force: true });
     throw err;
@@ -147,7 +148,7 @@ export async function storeUpload(
 export async function readBlob(hash: string): Promise<Buffer | null> {
   if (!/^[0-9a-f]{64}$/.test(hash)) return null;
   try {
-    return await readFile(path.join(uploadDir(), hash));
+    return await readFile(/*turbopackIgnore: true*/ path.join(uploadDir(), hash));
   } catch {
     return null;
   }
