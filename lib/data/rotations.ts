@@ -4,7 +4,7 @@ import { ApiError } from "@/lib/api/http";
 import { audit, type Actor } from "@/lib/data/audit";
 import { boardEvent } from "@/lib/data/events";
 import { fieldError, instant, yardOf } from "@/lib/data/orders";
-import { addDays } from "@/lib/data/yards";
+import { recordWorkedTime } from "@/lib/data/time-records";
 import { describeRrule, normaliseLocal, parseRrule } from "@/lib/recurrence-core";
 import { onCallFromMembers, schedule } from "@/lib/rotations";
 import { epochToZonedDate, epochToZonedWallTime } from "@/lib/rules/time";
@@ -183,15 +183,6 @@ export async function deleteRotation(trx: Knex.Transaction, actor: Actor, id: nu
   await boardEvent(trx, { organisationId: org, yardId: Number(cur.yard_id), kind: "availability", payload: { rotationId: id } });
 }
 
-/** Days a worked interval can change findings on: from its start date to the day after it ends. */
-export function daysTouched(start: number, end: number, tz: string): string[] {
-  const first = epochToZonedDate(start, tz);
-  const last = addDays(epochToZonedDate(end, tz), 1);
-  const out: string[] = [];
-  for (let d = first; d <= last && out.length < 40; d = addDays(d, 1)) out.push(d);
-  return out;
-}
-
 /** A call-out becomes a time record (kind call_out), which the REST rule reads. */
 export async function createCallOut(trx: Knex.Transaction, actor: Actor, input: CallOutInput) {
   const org = actor.organisationId;
@@ -213,40 +204,17 @@ export async function createCallOut(trx: Knex.Transaction, actor: Actor, input: 
     tz = String(rot.timezone);
     yardId = Number(rot.yard_id);
   }
-  const start = instant(input.start, tz, "start");
-  const end = instant(input.end, tz, "end");
-  if (end <= start) throw fieldError("end", "The end must be after the start.");
-  const clash = await trx("time_records")
-    .where({ worker_id: worker.id })
-    .whereIn("kind", ["call_out", "manual"])
-    .where("start_at", "<", new Date(end))
-    .where("end_at", ">", new Date(start))
-    .first("id", "start_at", "end_at");
-  if (clash) {
-    const at = (d: Date) => epochToZonedWallTime(new Date(d).getTime(), tz).replace("T", " ");
-    throw new ApiError(409, `${worker.first_name} ${worker.last_name} already has time recorded ${at(clash.start_at)} to ${at(clash.end_at)}.`, {
-      issues: [{ field: "start", message: "Overlaps time already recorded" }],
-    });
-  }
-  const [id] = await trx("time_records").insert({
-    worker_id: worker.id,
-    start_at: new Date(start),
-    end_at: new Date(end),
-    kind: "call_out",
-    rotation_id: input.rotationId,
-    reason: input.note,
-    created_by: actor.id,
-  });
-  await audit(trx, actor, org, "call_out.create", "time_record", id, {
-    workerId: worker.id,
+  const r = await recordWorkedTime(trx, actor, {
+    worker,
+    tz,
+    yardIds: [yardId, Number(worker.yard_id)],
     start: input.start,
     end: input.end,
+    kind: "call_out",
     rotationId: input.rotationId,
+    reason: input.note,
+    action: "call_out.create",
+    detail: { workerId: worker.id, start: input.start, end: input.end, rotationId: input.rotationId },
   });
-  for (const y of new Set([yardId, Number(worker.yard_id)])) {
-    for (const day of daysTouched(start, end, tz)) {
-      await boardEvent(trx, { organisationId: org, yardId: y, day, kind: "availability", payload: { workerId: Number(worker.id), timeRecordId: Number(id) } });
-    }
-  }
-  return { id: Number(id), hours: Math.round(((end - start) / 3_600_000) * 100) / 100 };
+  return { id: r.id, hours: Math.round(((r.end - r.start) / 3_600_000) * 100) / 100 };
 }

@@ -6,7 +6,6 @@ import { audit, type Actor } from "@/lib/data/audit";
 import { boardEvent } from "@/lib/data/events";
 import { getPolicy } from "@/lib/data/policies";
 import { fieldError, instant } from "@/lib/data/orders";
-import { daysTouched } from "@/lib/data/rotations";
 import { addDays, todayIn } from "@/lib/data/yards";
 import { epochToZonedDate, epochToZonedWallTime, zonedWallTimeToEpoch } from "@/lib/rules/time";
 import type { ManualTimeRecordInput } from "@/lib/validation/time-record";
@@ -162,43 +161,88 @@ export async function workerWeek(db: Q, organisationId: number, workerId: number
 }
 
 /** A manual entry (reason required). Times are wall clock in the worker's yard zone. */
-export async function createManualRecord(trx: Knex.Transaction, actor: Actor, input: ManualTimeRecordInput) {
+/** Days a worked interval can change findings on: from its start date to the day after it ends. */
+export function daysTouched(start: number, end: number, tz: string): string[] {
+  const first = epochToZonedDate(start, tz);
+  const last = addDays(epochToZonedDate(end, tz), 1);
+  const out: string[] = [];
+  for (let d = first; d <= last && out.length < 40; d = addDays(d, 1)) out.push(d);
+  return out;
+}
+
+interface WorkedTime {
+  worker: { id: number; first_name: string; last_name: string };
+  /** The zone the wall-clock times are read in (where the work was). */
+  tz: string;
+  /** Yards whose boards this time can change. */
+  yardIds: number[];
+  start: string;
+  end: string;
+  kind: "call_out" | "manual";
+  rotationId?: number | null;
+  reason: string | null;
+  action: string;
+  detail: Record<string, unknown>;
+}
+
+/**
+ * Records worked time the REST rule reads (a call-out or a manual entry): refuses an end before
+ * the start and an overlap with time already recorded, audits it and tells the boards.
+ */
+export async function recordWorkedTime(trx: Knex.Transaction, actor: Actor, t: WorkedTime) {
   const org = actor.organisationId;
-  const w = await trx("workers as w")
-    .join("yards as y", "y.id", "w.yard_id")
-    .where({ "w.id": input.workerId, "w.organisation_id": org })
-    .forUpdate()
-    .first("w.id", "w.yard_id", "w.first_name", "w.last_name", "y.timezone");
-  if (!w) throw fieldError("workerId", "No such worker.");
-  const tz = String(w.timezone);
-  const start = instant(input.start, tz, "start");
-  const end = instant(input.end, tz, "end");
+  const start = instant(t.start, t.tz, "start");
+  const end = instant(t.end, t.tz, "end");
   if (end <= start) throw fieldError("end", "The end must be after the start.");
   const clash = await trx("time_records")
-    .where({ worker_id: w.id })
+    .where({ worker_id: t.worker.id })
     .whereIn("kind", ["call_out", "manual"])
     .where("start_at", "<", new Date(end))
     .where("end_at", ">", new Date(start))
     .first("id", "start_at", "end_at");
   if (clash) {
-    const at = (d: Date) => epochToZonedWallTime(new Date(d).getTime(), tz).replace("T", " ");
-    throw new ApiError(409, `${w.first_name} ${w.last_name} already has time recorded ${at(clash.start_at)} to ${at(clash.end_at)}.`, {
+    const at = (d: Date) => epochToZonedWallTime(new Date(d).getTime(), t.tz).replace("T", " ");
+    throw new ApiError(409, `${t.worker.first_name} ${t.worker.last_name} already has time recorded ${at(clash.start_at)} to ${at(clash.end_at)}.`, {
       issues: [{ field: "start", message: "Overlaps time already recorded" }],
     });
   }
   const [id] = await trx("time_records").insert({
-    worker_id: w.id,
+    worker_id: t.worker.id,
     start_at: new Date(start),
     end_at: new Date(end),
-    kind: "manual",
-    reason: input.reason,
+    kind: t.kind,
+    rotation_id: t.rotationId ?? null,
+    reason: t.reason,
     created_by: actor.id,
   });
-  await audit(trx, actor, org, "time_record.create", "time_record", id, { workerId: Number(w.id), start: input.start, end: input.end, reason: input.reason });
-  for (const day of daysTouched(start, end, tz)) {
-    await boardEvent(trx, { organisationId: org, yardId: Number(w.yard_id), day, kind: "availability", payload: { workerId: Number(w.id), timeRecordId: Number(id) } });
+  await audit(trx, actor, org, t.action, "time_record", id, t.detail);
+  for (const yardId of new Set(t.yardIds)) {
+    for (const day of daysTouched(start, end, t.tz)) {
+      await boardEvent(trx, { organisationId: org, yardId, day, kind: "availability", payload: { workerId: Number(t.worker.id), timeRecordId: Number(id) } });
+    }
   }
-  return Number(id);
+  return { id: Number(id), start, end };
+}
+
+export async function createManualRecord(trx: Knex.Transaction, actor: Actor, input: ManualTimeRecordInput) {
+  const w = await trx("workers as w")
+    .join("yards as y", "y.id", "w.yard_id")
+    .where({ "w.id": input.workerId, "w.organisation_id": actor.organisationId })
+    .forUpdate()
+    .first("w.id", "w.yard_id", "w.first_name", "w.last_name", "y.timezone");
+  if (!w) throw fieldError("workerId", "No such worker.");
+  const r = await recordWorkedTime(trx, actor, {
+    worker: w,
+    tz: String(w.timezone),
+    yardIds: [Number(w.yard_id)],
+    start: input.start,
+    end: input.end,
+    kind: "manual",
+    reason: input.reason,
+    action: "time_record.create",
+    detail: { workerId: Number(w.id), start: input.start, end: input.end, reason: input.reason },
+  });
+  return r.id;
 }
 
 /** Removes a manual entry or a call-out (order records follow their order's status). */
