@@ -31,6 +31,7 @@ import { PoolPanel } from "./pool-panel";
 import { FindingRow, OverrideDialog } from "./findings";
 import { call, HttpError, useBoardData, useBoardMutations, useEngine, useLiveEvents, useToast, type Change } from "./use-board";
 import { SendCrewsButton } from "./send-crews";
+import { FillPanel } from "./fill-panel";
 
 // Pointer first (what is under the finger or cursor), rectangles for the keyboard.
 const collision: CollisionDetection = (args) => {
@@ -272,6 +273,7 @@ export function BoardClient({
               </option>
             ))}
           </select>
+          <FillPanel day={day} yard={yardCode} role={role} />
           <SendCrewsButton day={day} yard={yardCode} unresolved={unresolved.length} role={role} onDone={() => qc.invalidateQueries({ queryKey: key })} notify={notify} />
         </div>
       </div>

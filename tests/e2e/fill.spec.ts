@@ -1,0 +1,63 @@
+import { expect, test } from "@playwright/test";
+import { signIn } from "./helpers";
+
+// Fill open positions on the demo's North board (tomorrow). Other specs (board.spec.ts) run
+// before this one on the same database and leave WO-26-0102 with Brent Haugland (lapsed
+// climbing, overridden by a supervisor) as climber and Tomas Lindqvist as lead, so this spec
+// reads what the proposal says instead of assuming an untouched board:
+//   - every order the fill staffs comes out "Clear" on the board, unless the proposal says it
+//     keeps a block from someone placed before the fill (then exactly those blocks remain:
+//     adding people changes the crew, which lapses an override given for the old one);
+//   - every order it leaves open carries the reason;
+//   - when nothing is left open and nothing is carried, the day has no unresolved block.
+
+test.use({ viewport: { width: 1440, height: 1100 } });
+
+test("fill open positions, accept, and the staffed orders come out clear", async ({ page }) => {
+  test.setTimeout(120_000);
+  await signIn(page, "dispatcher");
+  await page.goto("/board?yard=NOR");
+  await expect(page.getByTestId("board-day")).toBeVisible();
+
+  // Retried until the page has hydrated and the panel opens.
+  await expect(async () => {
+    await page.getByTestId("fill-open").click();
+    await expect(page.getByTestId("fill-panel")).toBeVisible({ timeout: 1000 });
+  }).toPass({ timeout: 20_000 });
+  const panel = page.getByTestId("fill-panel");
+  await expect(panel.getByTestId("fill-status")).toBeVisible({ timeout: 60_000 });
+  await expect(panel.getByTestId("fill-status")).toContainText(/Optimal|Time limit reached|Nothing to fill/);
+
+  const staffed = await panel.locator('[data-testid^="fill-order-"]').evaluateAll((els) =>
+    els.map((e) => ({
+      number: e.getAttribute("data-testid")!.replace("fill-order-", ""),
+      carried: e.querySelectorAll("p").length > 0 ? Array.from(e.querySelectorAll("p")).filter((p) => /kept from a placement/.test(p.textContent ?? "")).length : 0,
+    })),
+  );
+  const left = await panel.locator('[data-testid^="fill-left-"]').evaluateAll((els) => els.map((e) => e.getAttribute("data-testid")!.replace("fill-left-", "")));
+  expect(staffed.length + left.length).toBeGreaterThan(0);
+  for (const number of left) {
+    await expect(panel.getByTestId(`fill-left-${number}`).getByTestId("fill-left-reason")).not.toBeEmpty();
+  }
+
+  if (staffed.length) {
+    // Every seat of a proposed order comes with its reasons (priority, overtime, yard).
+    const firstSeat = panel.locator('[data-testid^="fill-seat-"]').first();
+    await expect(firstSeat).toContainText(/priority \d order/);
+    await expect(firstSeat).toContainText(/overtime in 28 days/);
+    await panel.getByTestId("fill-accept").click();
+    await expect(panel.getByTestId("fill-result")).toBeVisible({ timeout: 30_000 });
+    await expect(panel.getByTestId("fill-result")).toContainText(`${await panel.locator('[data-testid^="fill-seat-"]').count()} placed`);
+  }
+  await panel.getByRole("button", { name: "Close" }).first().click();
+  await expect(panel).toHaveCount(0);
+
+  for (const o of staffed) {
+    const state = page.locator(`[data-testid="order-${o.number}"] [data-testid="crew-state"]`);
+    if (o.carried === 0) await expect(state).toContainText("Clear");
+    else await expect(state).toContainText(`${o.carried} block`);
+  }
+  if (left.length === 0 && staffed.every((o) => o.carried === 0)) {
+    await expect(page.getByTestId("day-summary")).toContainText("No unresolved blocks");
+  }
+});
