@@ -1,8 +1,7 @@
 import { requirePageRole } from "@/lib/auth/session";
 import { db } from "@/lib/db";
 import { pickYard, tomorrowIn } from "@/lib/data/yards";
-import { loadBoard } from "@/lib/data/board";
-import { markOnCall, prepareBoardDay } from "@/lib/board/extras";
+import { boardFor } from "@/lib/data/board-cache";
 import { BoardClient } from "./board-client";
 
 export const metadata = { title: "Board" };
@@ -14,8 +13,6 @@ export default async function BoardPage({ searchParams }: { searchParams: Promis
   const { yard, yards } = await pickYard(db(), user.organisationId, sp.yard, user.homeYardId);
   if (!yard) return <p className="card p-6">No yards are set up yet. An admin adds them.</p>;
   const day = sp.date && /^\d{4}-\d{2}-\d{2}$/.test(sp.date) ? sp.date : tomorrowIn(yard.timezone);
-  await prepareBoardDay(db(), user.organisationId, yard.id, day);
-  const initial = await loadBoard(db(), { organisationId: user.organisationId, yard, yards, day });
-  await markOnCall(db(), initial);
-  return <BoardClient day={day} yardCode={yard.code} initial={initial} role={user.role} />;
+  const { payload } = await boardFor(db(), { organisationId: user.organisationId, yard, yards, day });
+  return <BoardClient day={day} yardCode={yard.code} initial={payload} role={user.role} />;
 }

@@ -1,11 +1,10 @@
 import { db } from "@/lib/db";
-import { ApiError, handler, json, readQuery } from "@/lib/api/http";
+import { ApiError, handler, readQuery } from "@/lib/api/http";
 import { requireRole } from "@/lib/auth/session";
 import { CAN_DISPATCH } from "@/lib/auth/roles";
 import { boardQuerySchema } from "@/lib/validation/board";
 import { pickYard, tomorrowIn } from "@/lib/data/yards";
-import { loadBoard } from "@/lib/data/board";
-import { markOnCall, prepareBoardDay } from "@/lib/board/extras";
+import { boardFor } from "@/lib/data/board-cache";
 
 export const dynamic = "force-dynamic";
 
@@ -17,8 +16,16 @@ export const GET = handler(async (req) => {
     throw new ApiError(404, `No yard with code ${q.yard ?? "(none)"}.`);
   }
   const day = q.date ?? tomorrowIn(yard.timezone);
-  await prepareBoardDay(db(), user.organisationId, yard.id, day);
-  const payload = await loadBoard(db(), { organisationId: user.organisationId, yard, yards, day });
-  await markOnCall(db(), payload);
-  return json(payload);
+  const board = await boardFor(db(), { organisationId: user.organisationId, yard, yards, day });
+  const headers: Record<string, string> = {
+    "content-type": "application/json",
+    "cache-control": "private, no-cache",
+    etag: board.etag,
+    vary: "accept-encoding, cookie",
+  };
+  if (req.headers.get("if-none-match") === board.etag) return new Response(null, { status: 304, headers });
+  if (/\bgzip\b/.test(req.headers.get("accept-encoding") ?? "")) {
+    return new Response(new Uint8Array(board.gzip), { status: 200, headers: { ...headers, "content-encoding": "gzip" } });
+  }
+  return new Response(board.json, { status: 200, headers });
 });
