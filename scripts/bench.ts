@@ -241,7 +241,8 @@ async function benchApi() {
     if (!signed.signedIn) throw new Error(`sign-in failed: ${signed.status} ${signed.body.slice(0, 200)}`);
     // The session cookie the client keeps (its map is private to the type, not at run time).
     const cookieHeader = `next-auth.session-token=${(c as unknown as { cookies: Map<string, string> }).cookies.get("next-auth.session-token")}`;
-    const headers = { cookie: cookieHeader, "content-type": "application/json" };
+    // As a browser sends them: the board answers compressed when the client accepts it.
+    const headers = { cookie: cookieHeader, "content-type": "application/json", "accept-encoding": "gzip" };
     const day = loaded.day;
     const boardPath = `/api/board?yard=NOR&date=${day}`;
     const board = await c.json(boardPath);
