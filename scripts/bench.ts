@@ -241,8 +241,9 @@ async function benchApi() {
     if (!signed.signedIn) throw new Error(`sign-in failed: ${signed.status} ${signed.body.slice(0, 200)}`);
     // The session cookie the client keeps (its map is private to the type, not at run time).
     const cookieHeader = `next-auth.session-token=${(c as unknown as { cookies: Map<string, string> }).cookies.get("next-auth.session-token")}`;
-    // As a browser sends them: the board answers compressed when the client accepts it.
-    const headers = { cookie: cookieHeader, "content-type": "application/json", "accept-encoding": "gzip" };
+    const headers = { cookie: cookieHeader, "content-type": "application/json" };
+    // Reads go as a browser sends them: the board answers compressed when the client accepts it.
+    const readHeaders = { ...headers, "accept-encoding": "gzip" };
     const day = loaded.day;
     const boardPath = `/api/board?yard=NOR&date=${day}`;
     const board = await c.json(boardPath);
@@ -265,7 +266,7 @@ async function benchApi() {
     if (pairs.length < opts.connections) throw new Error(`only ${pairs.length} free seat/worker pairs for ${opts.connections} connections`);
 
     const run = (p: string, extra: Partial<Parameters<typeof autocannon>[0]> = {}) =>
-      cannon({ url: base + p, connections: opts.connections, duration: opts.duration, headers, ...extra });
+      cannon({ url: base + p, connections: opts.connections, duration: opts.duration, headers: readHeaders, ...extra });
     // One connection per seat: each runs place (POST, with the server's re-check) then take
     // off (DELETE) on its own seat and worker, so drops never contend for one seat.
     const dropOne = (pair: (typeof pairs)[number]) => [
