@@ -29,7 +29,6 @@ const g = globalThis as unknown as { gafflineBoardCache?: Map<string, Promise<En
 const cache = (g.gafflineBoardCache ??= new Map());
 
 export async function boardFor(db: Knex, opts: { organisationId: number; yard: Yard; yards: Yard[]; day: string }): Promise<Entry> {
-  await prepareBoardDay(db, opts.organisationId, opts.yard.id, opts.day);
   const cursor = await latestEventId(db, opts.organisationId);
   const key = `${opts.organisationId}|${opts.yard.id}|${opts.day}|${cursor}|${Math.floor(Date.now() / 5_000)}`;
   let entry = cache.get(key);
@@ -43,6 +42,9 @@ export async function boardFor(db: Knex, opts: { organisationId: number; yard: Y
 }
 
 async function build(db: Knex, opts: { organisationId: number; yard: Yard; yards: Yard[]; day: string }, key: string): Promise<Entry> {
+  // Recurring orders are materialised when a board is built; creating a series writes an event,
+  // so a board cached before it is never served after it.
+  await prepareBoardDay(db, opts.organisationId, opts.yard.id, opts.day);
   const payload = await loadBoard(db, opts);
   await markOnCall(db, payload);
   const json = JSON.stringify(payload);
