@@ -340,10 +340,17 @@ async function benchApi() {
     };
   } finally {
     if (child?.pid) {
+      const group = -child.pid;
       try {
-        process.kill(-child.pid, "SIGTERM");
+        process.kill(group, "SIGTERM");
+        // A server still draining connections gets 5 s, then it is stopped for good.
+        for (let i = 0; i < 50; i++) {
+          await new Promise((r) => setTimeout(r, 100));
+          process.kill(group, 0);
+        }
+        process.kill(group, "SIGKILL");
       } catch {
-        /* already gone */
+        /* gone */
       }
     }
     await db.destroy();
