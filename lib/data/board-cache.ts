@@ -1,6 +1,4 @@
 import { createHash } from "node:crypto";
-import { promisify } from "node:util";
-import { gzip } from "node:zlib";
 import type { Knex } from "knex";
 import type { BoardPayload } from "@/lib/board/types";
 import { markOnCall, prepareBoardDay } from "@/lib/board/extras";
@@ -8,11 +6,10 @@ import { loadBoard } from "./board";
 import { latestEventId } from "./events";
 import type { Yard } from "./yards";
 
-const gz = promisify(gzip);
 
 // A day's board is the same for every dispatcher of the organisation until something changes,
 // and every change writes a board event. So a board built for (yard, day, latest event id) can be
-// served again, already serialised and compressed, until the next event — checked with one
+// served again, already serialised, until the next event — checked with one
 // indexed query against the shared table, so every app instance stays correct. The minute is
 // part of the key (5 s buckets) because "no reply" flags depend on the clock, and so that a write
 // made straight to the database by a script shows within seconds.
@@ -20,7 +17,6 @@ const gz = promisify(gzip);
 interface Entry {
   payload: BoardPayload;
   json: string;
-  gzip: Buffer;
   etag: string;
 }
 
@@ -48,5 +44,5 @@ async function build(db: Knex, opts: { organisationId: number; yard: Yard; yards
   const payload = await loadBoard(db, opts);
   await markOnCall(db, payload);
   const json = JSON.stringify(payload);
-  return { payload, json, gzip: await gz(json), etag: `"${createHash("sha1").update(key).digest("base64url")}"` };
+  return { payload, json, etag: `"${createHash("sha1").update(key).digest("base64url")}"` };
 }

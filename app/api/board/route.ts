@@ -21,11 +21,8 @@ export const GET = handler(async (req) => {
     "content-type": "application/json",
     "cache-control": "private, no-cache",
     etag: board.etag,
-    vary: "accept-encoding, cookie",
+    vary: "cookie",
   };
   if (req.headers.get("if-none-match") === board.etag) return new Response(null, { status: 304, headers });
-  if (/\bgzip\b/.test(req.headers.get("accept-encoding") ?? "")) {
-    return new Response(new Uint8Array(board.gzip), { status: 200, headers: { ...headers, "content-encoding": "gzip" } });
-  }
   return new Response(board.json, { status: 200, headers });
 });
