@@ -3,7 +3,9 @@ import { defineConfig } from "vitest/config";
 export default defineConfig({
   resolve: { tsconfigPaths: true },
   test: {
-    include: ["tests/unit/**/*.test.ts", "tests/integration/**/*.test.ts"],
+    // tests/reliability start their own app instances (and a MariaDB of their own) from the
+    // build scripts/test makes; they run on every scripts/test.
+    include: ["tests/unit/**/*.test.ts", "tests/integration/**/*.test.ts", "tests/reliability/**/*.test.ts"],
     environment: "node",
     testTimeout: 60_000,
     hookTimeout: 60_000,

@@ -16,7 +16,12 @@ export * from "./recurrence-core";
  * Safe under concurrency: each series is extended under a row lock. Returns how many
  * occurrences it created.
  */
-export async function ensureOccurrences(db: Knex, organisationId: number, yardId: number, day: string): Promise<number> {
+/** Recurring orders are materialised at most this far ahead; a board further out shows none. */
+export const MATERIALISE_AHEAD_DAYS = 731;
+
+export async function ensureOccurrences(db: Knex, organisationId: number, yardId: number, wanted: string): Promise<number> {
+  const limit = new Date(Date.now() + MATERIALISE_AHEAD_DAYS * 86_400_000).toISOString().slice(0, 10);
+  const day = wanted > limit ? limit : wanted;
   const due = await db("order_series")
     .where({ organisation_id: organisationId, yard_id: yardId, active: true })
     .andWhere((w) => w.whereNull("materialised_through").orWhere("materialised_through", "<", day))

@@ -58,6 +58,28 @@ export function handler<P = Record<string, string>>(
   };
 }
 
+/**
+ * The path of the first string (or key) that is not well-formed Unicode: JSON may escape a lone
+ * surrogate ("\ud800"), which no UTF-8 column can store and MariaDB's JSON check refuses (an
+ * audit row's detail), so it is turned away here. Iterative: nesting depth cannot overflow.
+ */
+export function malformedTextAt(value: unknown): string | null {
+  const stack: [unknown, string][] = [[value, ""]];
+  while (stack.length) {
+    const [v, at] = stack.pop()!;
+    if (typeof v === "string") {
+      if (!v.isWellFormed()) return at || "(body)";
+    } else if (v && typeof v === "object") {
+      for (const [k, child] of Object.entries(v)) {
+        const path = at ? `${at}.${k}` : k;
+        if (!k.isWellFormed()) return path;
+        stack.push([child, path]);
+      }
+    }
+  }
+  return null;
+}
+
 /** Reads a JSON body and validates it; 400 for unreadable JSON, 422 naming the field. */
 export async function readJson<T>(req: Request, schema: ZodType<T>): Promise<T> {
   let raw: unknown;
@@ -68,6 +90,11 @@ export async function readJson<T>(req: Request, schema: ZodType<T>): Promise<T> 
   } catch (err) {
     if (err instanceof ApiError) throw err;
     throw new ApiError(400, "Request body is not valid JSON.");
+  }
+  const bad = malformedTextAt(raw);
+  if (bad) {
+    const message = "Contains text that is not valid Unicode (a lone surrogate)";
+    throw new ApiError(422, `Invalid ${bad}: ${message}`, { issues: [{ field: bad, message }] });
   }
   return schema.parse(raw);
 }

@@ -23,8 +23,17 @@ function clientIp(headers: Record<string, string | string[] | undefined> | undef
   return (first || (headers?.["x-real-ip"] as string) || "local").slice(0, 64);
 }
 
+/**
+ * Session and CSRF cookies are always HttpOnly and SameSite=Lax (next-auth's defaults); they are
+ * Secure, with the __Secure-/__Host- prefixes, whenever the public URL is https — also when TLS
+ * ends at a proxy in front of `next start`. Said here rather than left to next-auth's inference
+ * so tests/unit/auth-cookies.test.ts can hold it (and proxy.ts reads the same cookie name).
+ */
+export const useSecureCookies = (process.env.NEXTAUTH_URL ?? "").startsWith("https://");
+
 export const authOptions: NextAuthOptions = {
   session: { strategy: "jwt", maxAge: 12 * 60 * 60 },
+  useSecureCookies,
   pages: { signIn: "/login" },
   secret: process.env.NEXTAUTH_SECRET,
   providers: [

@@ -82,7 +82,14 @@ function assertOpen(order: { status: string; number: string }) {
   if (CLOSED.has(order.status)) throw new ApiError(409, `${order.number} is ${order.status}; its crew can no longer change.`);
 }
 
-/** Never persist a double booking: the worker may not be on another order that overlaps this one. */
+/**
+ * Never persist a double booking: the worker may not be on another order that overlaps this one.
+ * A plain read, not FOR UPDATE: the caller holds the worker's row lock, which every placement
+ * of this worker takes first, and READ COMMITTED reads what the previous holder committed. A
+ * locking read here would lock the other orders' rows too while holding the worker — the reverse
+ * of the orders-then-worker order — and two instances placing one person on two overlapping
+ * orders deadlocked (tests/reliability/two-instances.test.ts).
+ */
 async function assertNoClash(
   trx: Knex.Transaction,
   workerId: number,
@@ -98,7 +105,6 @@ async function assertNoClash(
     .whereNot("o.status", "cancelled")
     .where("o.start_at", "<", order.end_at)
     .where("o.end_at", ">", order.start_at)
-    .forUpdate()
     .select("o.number", "o.start_at", "o.end_at")
     .first();
   if (exceptAssignmentId) q.whereNot("a.id", exceptAssignmentId);

@@ -21,8 +21,22 @@ import {
 const TIME_FORMAT = "expected YYYY-MM-DDTHH:mm";
 const DATE_FORMAT = "expected YYYY-MM-DD";
 
+/**
+ * A received value for an error message: JSON, cut to 80 characters. A value nested thousands
+ * of levels deep (JSON.stringify overflows the stack) or megabytes long is described, not echoed.
+ */
+export function shown(v: unknown): string {
+  let s: string;
+  try {
+    s = JSON.stringify(v) ?? String(v);
+  } catch {
+    s = Array.isArray(v) ? "an array nested too deep to show" : "an object nested too deep to show";
+  }
+  return s.length > 80 ? `${s.slice(0, 77)}...` : s;
+}
+
 const formatError = (format: string) => (iss: { input?: unknown }) =>
-  iss.input === undefined ? "required" : `${format}, got ${JSON.stringify(iss.input)}`;
+  iss.input === undefined ? "required" : `${format}, got ${shown(iss.input)}`;
 const wallTime = z.string({ error: formatError(TIME_FORMAT) }).refine(isWallTime, { error: formatError(TIME_FORMAT) });
 const isoDate = z.string({ error: formatError(DATE_FORMAT) }).refine(isIsoDate, { error: formatError(DATE_FORMAT) });
 const text = z.string();
@@ -67,7 +81,7 @@ const workOrderSchema = z.object({
 export const dayInputSchema = z.object({
   timezone: z
     .string()
-    .refine(isValidTimeZone, { error: (iss) => `expected an IANA time zone name, got ${JSON.stringify(iss.input)}` }),
+    .refine(isValidTimeZone, { error: (iss) => `expected an IANA time zone name, got ${shown(iss.input)}` }),
   policy: policySchema.default({ ...DEFAULT_POLICY }),
   workers: z.array(workerSchema),
   workOrders: z.array(workOrderSchema),
@@ -101,7 +115,7 @@ const messages: z.core.$ZodErrorMap = (iss) => {
       return iss.input === undefined ? "required" : `expected ${iss.expected}, got ${kindOf(iss.input)}`;
     case "invalid_value":
       if (iss.input === undefined) return "required";
-      return `expected one of ${iss.values.map((v) => JSON.stringify(v)).join(", ")}, got ${JSON.stringify(iss.input)}`;
+      return `expected one of ${iss.values.map((v) => JSON.stringify(v)).join(", ")}, got ${shown(iss.input)}`;
     case "too_small":
       if (iss.origin === "string") return "must not be empty";
       return `must be ${iss.inclusive ? "at least" : "greater than"} ${String(iss.minimum)}`;

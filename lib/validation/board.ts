@@ -1,8 +1,9 @@
 import { z } from "zod";
 import { RULE_CODES } from "@/lib/rules/types";
+import { calendarDay } from "./day";
 
 const id = (name: string) => z.number({ error: `${name} must be a number` }).int().positive().max(2_147_483_647);
-const isoDate = z.string().regex(/^\d{4}-\d{2}-\d{2}$/, "Use YYYY-MM-DD");
+const isoDate = calendarDay();
 
 export const boardQuerySchema = z.object({
   date: isoDate.optional(),

@@ -1,9 +1,10 @@
 import { z } from "zod";
+import { calendarDay } from "./day";
 
 // Fill open positions and call-out lists (issue 9).
 
 const id = (name: string) => z.number({ error: `${name} must be a number` }).int().positive().max(2_147_483_647);
-const isoDate = z.string({ error: "date is required" }).regex(/^\d{4}-\d{2}-\d{2}$/, "Use YYYY-MM-DD");
+const isoDate = calendarDay();
 const yard = z.string({ error: "yard is required" }).trim().min(1, "yard is required").max(20);
 
 export const fillRequestSchema = z.object({

@@ -1,6 +1,7 @@
 import { z } from "zod";
+import { calendarDay } from "./day";
 
-const isoDate = z.string({ error: "date is required" }).regex(/^\d{4}-\d{2}-\d{2}$/, "Use YYYY-MM-DD");
+const isoDate = calendarDay();
 const e164 = z.string().trim().regex(/^\+[1-9]\d{6,14}$/, "Use an E.164 number such as +13205550101");
 
 export const sendCrewsSchema = z.object({

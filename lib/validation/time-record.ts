@@ -27,7 +27,10 @@ export type ManualTimeRecordValues = z.input<typeof manualTimeRecordSchema>;
 /** GET /api/time-records?workerId=&week=YYYY-MM-DD (any day of the week; weeks start Monday). */
 export const timeQuerySchema = z.object({
   workerId: z.coerce.number().int().positive().optional(),
-  week: isoDate("the week").optional(),
+  // Bounded: the week after 9999-12-27 is not a date the zone arithmetic can write (was a 500).
+  week: isoDate("the week")
+    .refine((s) => s >= "1900-01-01" && s <= "2199-12-31", "Pick a week between 1900 and 2199")
+    .optional(),
 });
 
 /** POST /api/calendar/reset: a lineworker resets their own link; hr and admin name the worker. */

@@ -1,4 +1,5 @@
 import { db } from "@/lib/db";
+import { idParam } from "@/lib/api/ids";
 import { ApiError, handler, json, readJson } from "@/lib/api/http";
 import { requireRole } from "@/lib/auth/session";
 import { listOrders, parseJson, seriesView } from "@/lib/data/orders";
@@ -7,11 +8,8 @@ import { seriesEditSchema } from "@/lib/validation/order";
 
 type Params = { id: string };
 
-const idOf = async (ctx: { params: Promise<Params> }) => {
-  const id = Number((await ctx.params).id);
-  if (!Number.isInteger(id) || id <= 0) throw new ApiError(404, "No such series.");
-  return id;
-};
+// Digits only: "0x1f", "1e3" or " 7" are not another spelling of a record.
+const idOf = async (ctx: { params: Promise<Params> }) => idParam((await ctx.params).id, "series");
 
 export const GET = handler<Params>(async (_req, ctx) => {
   const user = await requireRole("dispatcher", "supervisor", "admin");

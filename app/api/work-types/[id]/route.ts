@@ -1,4 +1,5 @@
 import { db } from "@/lib/db";
+import { idParam } from "@/lib/api/ids";
 import { ApiError, handler, json, readJson } from "@/lib/api/http";
 import { requireRole } from "@/lib/auth/session";
 import { audit } from "@/lib/data/audit";
@@ -10,7 +11,7 @@ type Params = { id: string };
 
 export const GET = handler<Params>(async (_req, ctx) => {
   const user = await requireRole("admin", "dispatcher", "supervisor", "hr");
-  const t = await getWorkType(db(), user.organisationId, Number((await ctx.params).id));
+  const t = await getWorkType(db(), user.organisationId, idParam((await ctx.params).id, "work type"));
   if (!t) throw new ApiError(404, "No such work type.");
   return json(t);
 });
@@ -18,7 +19,7 @@ export const GET = handler<Params>(async (_req, ctx) => {
 // PUT: admin. The template needs exactly one lead position.
 export const PUT = handler<Params>(async (req, ctx) => {
   const user = await requireRole("admin");
-  const id = Number((await ctx.params).id);
+  const id = idParam((await ctx.params).id, "work type");
   const input = await readJson(req, crewTemplateSchema);
   const saved = await db().transaction(async (trx) => {
     const before = await getWorkType(trx, user.organisationId, id);

@@ -1,16 +1,14 @@
-import { z } from "zod";
 import { db } from "@/lib/db";
+import { idParam } from "@/lib/api/ids";
 import { ApiError, handler, json, readJson } from "@/lib/api/http";
 import { requireRole } from "@/lib/auth/session";
 import { respondSchema } from "@/lib/validation/notify";
 import { respond } from "@/lib/data/responses";
 
-const idParam = z.object({ id: z.coerce.number().int().positive().max(2_147_483_647) });
-
 // A lineworker answers their own assignment on the web (My week); texts use the same respond().
 export const POST = handler<{ id: string }>(async (req, ctx) => {
   const user = await requireRole("lineworker");
-  const { id } = idParam.parse(await ctx.params);
+  const id = idParam((await ctx.params).id, "assignment");
   const input = await readJson(req, respondSchema);
   if (!user.workerId) throw new ApiError(403, "Your sign-in is not linked to a worker; ask an admin.");
   const owner = await db()("assignments as a").join("work_orders as o", "o.id", "a.work_order_id").where("a.id", id).first("a.worker_id", "o.organisation_id");
