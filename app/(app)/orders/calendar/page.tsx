@@ -1,10 +1,9 @@
 import Link from "next/link";
 import { requirePageRole } from "@/lib/auth/session";
-import { db } from "@/lib/db";
+import { ordersContext, one, type Search } from "../context";
 import { Badge, PageHeader } from "@/components/status";
 import { listOrders } from "@/lib/data/orders";
-import { listWorkTypes } from "@/lib/data/work-types";
-import { addDays, listYards, todayIn } from "@/lib/data/yards";
+import { addDays } from "@/lib/data/yards";
 import { fmtDate } from "@/lib/format";
 import { locateBadgeLabel } from "@/lib/orders/locate";
 import { STATUS_LABEL, STATUS_TONE } from "@/lib/orders/status";
@@ -16,19 +15,11 @@ import { OrderFilters, statusFilter } from "../filters";
 
 export const metadata = { title: "Orders calendar" };
 
-type Search = Promise<Record<string, string | string[] | undefined>>;
-const one = (v: string | string[] | undefined) => (Array.isArray(v) ? v[0] : v) ?? "";
 
 export default async function OrdersCalendarPage({ searchParams }: { searchParams: Search }) {
   const user = await requirePageRole("dispatcher", "supervisor", "admin");
   const sp = await searchParams;
-  const conn = db();
-  const [yards, workTypes] = await Promise.all([listYards(conn, user.organisationId), listWorkTypes(conn, user.organisationId)]);
-  const home = yards.find((y) => y.id === user.homeYardId);
-  const yardParam = "yard" in sp ? one(sp.yard) : (home?.code ?? "");
-  const picked = yardParam ? yards.filter((y) => y.code === yardParam) : yards;
-  const tz = (picked[0] ?? yards[0])?.timezone ?? "UTC";
-  const today = todayIn(tz);
+  const { conn, yards, workTypes, yardParam, picked, today } = await ordersContext(user, sp);
   // Default to tomorrow: the day dispatchers are building.
   const date = isIsoDate(one(sp.date)) ? one(sp.date) : addDays(today, 1);
   const view = one(sp.view) === "day" ? "day" : "week";
