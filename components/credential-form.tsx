@@ -37,7 +37,7 @@ interface Props {
 const Err = ({ id, msg }: { id: string; msg?: string }) =>
   msg ? (
     <p id={id} className="mt-1 text-xs font-semibold text-block">
-      ⛔ {msg}
+      ✖ {msg}
     </p>
   ) : null;
 
@@ -246,7 +246,7 @@ export function CredentialForm({ workerId, type, choices = [], today, mode, onDo
       </div>
       {formError && (
         <p role="alert" className="rounded-md bg-block-bg px-3 py-2 text-sm font-medium text-block sm:col-span-2 lg:col-span-4">
-          ⛔ {formError}
+          ✖ {formError}
         </p>
       )}
       <div className="flex flex-wrap gap-2 sm:col-span-2 lg:col-span-4">

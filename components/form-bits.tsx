@@ -9,7 +9,7 @@ export function FieldError({ id, msg }: { id?: string; msg?: string }) {
   if (!msg) return null;
   return (
     <p id={id} className="mt-1 text-xs font-semibold text-block">
-      <span aria-hidden="true">⛔ </span>
+      <span aria-hidden="true">✖ </span>
       {msg}
     </p>
   );
@@ -23,7 +23,7 @@ export function FormAlert({ tone = "block", children }: { tone?: "block" | "clea
     warn: "bg-warn-bg text-warn",
     info: "bg-info-bg text-info",
   }[tone];
-  const icon = { block: "⛔", clear: "✓", warn: "▲", info: "●" }[tone];
+  const icon = { block: "✖", clear: "✓", warn: "▲", info: "●" }[tone];
   return (
     <div role={tone === "block" ? "alert" : "status"} className={`rounded-md px-3 py-2 text-sm font-medium ${cls}`}>
       <span aria-hidden="true">{icon} </span>
@@ -111,7 +111,7 @@ export function ActionButton({
       </button>
       {state.error && (
         <span role="alert" className="mt-1 text-xs font-semibold text-block">
-          ⛔ {state.error}
+          ✖ {state.error}
         </span>
       )}
       {state.ok && done && (

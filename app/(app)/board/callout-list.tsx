@@ -156,7 +156,7 @@ function CalloutPopover({
       </div>
       {error && (
         <p role="alert" className="mt-2 text-sm font-semibold text-block">
-          ⛔ {error}
+          ✖ {error}
         </p>
       )}
       {!data && !error && <p className="mt-2 text-sm text-ink-500">Checking the crew rules for everyone in the pool…</p>}

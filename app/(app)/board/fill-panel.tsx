@@ -169,7 +169,7 @@ function FillDialog({ day, yard, onClose }: { day: string; yard: string; onClose
 
           {error && (
             <p role="alert" className="rounded-md bg-block-bg px-3 py-2 text-sm font-semibold text-block">
-              ⛔ {error}
+              ✖ {error}
             </p>
           )}
 

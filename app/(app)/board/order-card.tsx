@@ -39,7 +39,7 @@ function ResendButton({ assignmentId, name }: { assignmentId: number; name: stri
           setState({ busy: true });
           const res = await fetch(`/api/assignments/${assignmentId}/resend`, { method: "POST" }).catch(() => null);
           const body = res ? await res.json().catch(() => ({})) : {};
-          setState(res?.ok ? { msg: "✓ Queued" } : { msg: `⛔ ${body.error ?? "Not queued"}`, error: true });
+          setState(res?.ok ? { msg: "✓ Queued" } : { msg: `✖ ${body.error ?? "Not queued"}`, error: true });
         }}
       >
         {state.busy ? "Re-sending…" : "Re-send"}

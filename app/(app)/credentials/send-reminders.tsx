@@ -36,7 +36,7 @@ export function SendReminders() {
     <div className="flex flex-wrap items-center gap-2">
       {msg && (
         <span role="status" className={`text-sm ${msg.ok ? "text-clear" : "text-block"}`}>
-          {msg.ok ? "✓ " : "⛔ "}
+          {msg.ok ? "✓ " : "✖ "}
           {msg.text}
         </span>
       )}

@@ -28,7 +28,7 @@ export function HandledButton({ id }: { id: number }) {
       >
         {busy ? "Saving…" : "Mark handled"}
       </button>
-      {error && <span className="text-xs font-semibold text-block">⛔ {error}</span>}
+      {error && <span className="text-xs font-semibold text-block">✖ {error}</span>}
     </span>
   );
 }

@@ -539,7 +539,7 @@ export function OrderForm({ mode, yards, workTypes, initial, seats = [], orderId
               End series
             </button>
           )}
-          {Object.keys(errors).length > 0 && <span className="text-sm font-semibold text-block">⛔ Check the fields marked above.</span>}
+          {Object.keys(errors).length > 0 && <span className="text-sm font-semibold text-block">✖ Check the fields marked above.</span>}
         </div>
       )}
     </form>

@@ -223,7 +223,7 @@ export function PhoneClient({ owners, initialPhone, fromNumber }: { owners: Phon
           </form>
           {error && (
             <p role="alert" className="bg-block-bg px-3 py-2 text-xs font-semibold text-block">
-              ⛔ {error}
+              ✖ {error}
             </p>
           )}
         </div>

@@ -84,7 +84,7 @@ export function WorkerForm({ worker, yards, onDone, onCancel }: Props) {
   const err = (name: (typeof FIELDS)[number]) =>
     errors[name] ? (
       <p id={`wf-${name}-err`} className="mt-1 text-xs font-semibold text-block">
-        ⛔ {String(errors[name]?.message)}
+        ✖ {String(errors[name]?.message)}
       </p>
     ) : null;
 
@@ -168,7 +168,7 @@ export function WorkerForm({ worker, yards, onDone, onCancel }: Props) {
       </fieldset>
       {formError && (
         <div role="alert" className="rounded-md bg-block-bg px-3 py-2 text-sm font-medium text-block sm:col-span-2 lg:col-span-4">
-          ⛔ {formError}
+          ✖ {formError}
           {stale && (
             <button type="button" className="btn-quiet ml-3 px-2 py-1" onClick={takeTheirs}>
               Load the latest version

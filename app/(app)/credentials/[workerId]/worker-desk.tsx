@@ -65,7 +65,7 @@ function PendingActions({ c }: { c: CredentialDetail }) {
             onChange={(e) => setReason(e.target.value)}
             aria-invalid={error ? true : undefined}
           />
-          {error && <p className="mt-1 text-xs font-semibold text-block">⛔ {error}</p>}
+          {error && <p className="mt-1 text-xs font-semibold text-block">✖ {error}</p>}
         </div>
         <button type="button" className="btn-primary" disabled={busy} onClick={() => patch({ action: "reject", reason })}>
           Reject
@@ -84,7 +84,7 @@ function PendingActions({ c }: { c: CredentialDetail }) {
       <button type="button" className="btn-quiet" disabled={busy} onClick={() => setRejecting(true)}>
         Reject…
       </button>
-      {error && <p className="w-full text-xs font-semibold text-block">⛔ {error}</p>}
+      {error && <p className="w-full text-xs font-semibold text-block">✖ {error}</p>}
     </div>
   );
 }

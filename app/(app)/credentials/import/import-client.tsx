@@ -189,7 +189,7 @@ export function ImportClient({ codes }: { codes: { code: string; name: string; r
           {ignored.length > 0 && <p className="mt-2 text-xs text-ink-500">Columns ignored: {ignored.join(", ")}.</p>}
           {error && (
             <p role="alert" className="mt-3 rounded-md bg-block-bg px-3 py-2 text-sm font-medium text-block">
-              ⛔ {error}
+              ✖ {error}
             </p>
           )}
           {result?.ok && phase === "checked" && (
@@ -211,7 +211,7 @@ export function ImportClient({ codes }: { codes: { code: string; name: string; r
         {issueCount > 0 && (
           <section className="card p-4" aria-labelledby="issues-h">
             <h2 id="issues-h" className="mb-2 font-bold text-block">
-              ⛔ {issueCount} problem{issueCount === 1 ? "" : "s"}: nothing {result && !result.ok ? "was" : "will be"} imported
+              ✖ {issueCount} problem{issueCount === 1 ? "" : "s"}: nothing {result && !result.ok ? "was" : "will be"} imported
             </h2>
             <ul className="max-h-80 space-y-1 overflow-y-auto break-words text-sm" data-testid="import-issues">
               {issues.map((i, n) => (

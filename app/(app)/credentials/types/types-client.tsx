@@ -15,7 +15,7 @@ type EditValues = Omit<QualificationTypeCreate, "code">;
 const months = (v: unknown) => (v === "" || v === null || v === undefined ? null : Number(v));
 
 function Err({ msg }: { msg?: string }) {
-  return msg ? <p className="mt-1 text-xs font-semibold text-block">⛔ {msg}</p> : null;
+  return msg ? <p className="mt-1 text-xs font-semibold text-block">✖ {msg}</p> : null;
 }
 
 function EditRow({ t, onClose }: { t: QualificationType; onClose: (msg?: string) => void }) {
@@ -86,7 +86,7 @@ function EditRow({ t, onClose }: { t: QualificationType; onClose: (msg?: string)
       </div>
       {error && (
         <p role="alert" className="text-sm font-medium text-block sm:col-span-2 lg:col-span-5">
-          ⛔ {error}
+          ✖ {error}
         </p>
       )}
     </form>
@@ -153,7 +153,7 @@ function AddForm({ onClose }: { onClose: (msg?: string) => void }) {
       </label>
       {error && (
         <p role="alert" className="text-sm font-medium text-block sm:col-span-2 lg:col-span-6">
-          ⛔ {error}
+          ✖ {error}
         </p>
       )}
       <div className="flex gap-2 sm:col-span-2 lg:col-span-6">
@@ -187,7 +187,7 @@ export function TypesClient({ types, canEdit }: { types: QualificationType[]; ca
     <>
       {msg && (
         <p role="status" className={`mb-3 rounded-md px-3 py-2 text-sm font-semibold ${msg.ok ? "bg-clear-bg text-clear" : "bg-block-bg text-block"}`}>
-          {msg.ok ? "✓" : "⛔"} {msg.text}
+          {msg.ok ? "✓" : "✖"} {msg.text}
         </p>
       )}
       {canEdit && editing !== "new" && (
