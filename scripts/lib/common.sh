@@ -139,6 +139,9 @@ APP_PID=""
 start_app() {
   # start_app PORT: next start in the background, wait for /api/health.
   local port="$1"
+  if (exec 3<>"/dev/tcp/127.0.0.1/$port") 2>/dev/null; then
+    die "port $port is taken by another program; stop it or set TEST_PORT to a free port"
+  fi
   export NEXTAUTH_URL="http://127.0.0.1:$port"
   export APP_PUBLIC_URL="${APP_PUBLIC_URL:-http://127.0.0.1:$port}"
   nohup npx next start -H 127.0.0.1 -p "$port" >"$LOG_DIR/app-$port.log" 2>&1 &
