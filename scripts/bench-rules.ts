@@ -2,10 +2,10 @@
 //   npm run bench:rules [-- --workers 1500 --orders 400 --days 60 --seed 42]
 // Targets: full check < 50 ms, single-drop re-check < 2 ms (medians).
 
-import { checkDay, createEngine, type AssignmentChange } from "../lib/rules/engine";
-import { generateDay, mulberry32, toDayInput } from "../lib/rules/generate";
+import { checkDay, createEngine } from "../lib/rules/engine";
+import { generateDay, toDayInput } from "../lib/rules/generate";
+import { randomDrops } from "../lib/rules/random-drops";
 import { parseDayInput } from "../lib/rules/input";
-import { POSITIONS, type Assignment } from "../lib/rules/types";
 
 function option(name: string, fallback: number): number {
   const i = process.argv.indexOf(`--${name}`);
@@ -63,25 +63,7 @@ console.log(`full check (50 runs): median ${ms(f.median)}, p95 ${ms(f.p95)}, max
 
 // Single drop: one add, remove or move on the live engine, timed; then undone (untimed).
 const engine = createEngine(snapshot);
-const rnd = mulberry32(opts.seed + 1);
-const pick = <T>(xs: readonly T[]): T => xs[Math.floor(rnd() * xs.length)];
-const randomAssignment = (): Assignment => ({
-  workOrderId: pick(snapshot.workOrders).id,
-  workerId: pick(snapshot.workers).id,
-  position: pick(POSITIONS),
-});
-function randomDrop(): [AssignmentChange, AssignmentChange] {
-  const current = engine.index.allAssignments();
-  const r = rnd();
-  if (r < 0.34 || current.length === 0) {
-    const a = randomAssignment();
-    return [{ kind: "add", assignment: a }, { kind: "remove", assignment: a }];
-  }
-  const existing = pick(current);
-  if (r < 0.67) return [{ kind: "remove", assignment: existing }, { kind: "add", assignment: existing }];
-  const to = { ...existing, workOrderId: pick(snapshot.workOrders).id, position: pick(POSITIONS) };
-  return [{ kind: "move", from: existing, to }, { kind: "move", from: to, to: existing }];
-}
+const randomDrop = randomDrops(snapshot, engine, opts.seed + 1);
 for (let i = 0; i < 50; i++) {
   const [drop, undo] = randomDrop();
   engine.apply(drop);

@@ -27,9 +27,9 @@ import { dbConfig } from "../knexfile";
 import { fill } from "../lib/fill/fill";
 import { getHighs, Lp, solveLp } from "../lib/fill/highs";
 import { fillScenario } from "../lib/fill/scenario";
-import { checkDay, createEngine, type AssignmentChange } from "../lib/rules/engine";
-import { generateDay, mulberry32 } from "../lib/rules/generate";
-import { POSITIONS, type Assignment } from "../lib/rules/types";
+import { checkDay, createEngine } from "../lib/rules/engine";
+import { generateDay } from "../lib/rules/generate";
+import { randomDrops } from "../lib/rules/random-drops";
 import { Client } from "../tests/support/client";
 import { loadLarge } from "./bench/load-large";
 
@@ -75,21 +75,7 @@ function benchRules() {
     full.push(performance.now() - t);
   }
   const engine = createEngine(snapshot);
-  const rnd = mulberry32(opts.seed + 1);
-  const pick = <T>(xs: readonly T[]): T => xs[Math.floor(rnd() * xs.length)];
-  const randomAssignment = (): Assignment => ({ workOrderId: pick(snapshot.workOrders).id, workerId: pick(snapshot.workers).id, position: pick(POSITIONS) });
-  const randomDrop = (): [AssignmentChange, AssignmentChange] => {
-    const current = engine.index.allAssignments();
-    const r = rnd();
-    if (r < 0.34 || !current.length) {
-      const a = randomAssignment();
-      return [{ kind: "add", assignment: a }, { kind: "remove", assignment: a }];
-    }
-    const existing = pick(current);
-    if (r < 0.67) return [{ kind: "remove", assignment: existing }, { kind: "add", assignment: existing }];
-    const to = { ...existing, workOrderId: pick(snapshot.workOrders).id, position: pick(POSITIONS) };
-    return [{ kind: "move", from: existing, to }, { kind: "move", from: to, to: existing }];
-  };
+  const randomDrop = randomDrops(snapshot, engine, opts.seed + 1);
   for (let i = 0; i < 50; i++) {
     const [d, u] = randomDrop();
     engine.apply(d);
