@@ -144,7 +144,8 @@ start_app() {
   fi
   export NEXTAUTH_URL="http://127.0.0.1:$port"
   export APP_PUBLIC_URL="${APP_PUBLIC_URL:-http://127.0.0.1:$port}"
-  nohup npx next start -H 127.0.0.1 -p "$port" >"$LOG_DIR/app-$port.log" 2>&1 &
+  # Its own process group, so stopping it also stops the next-server it forks.
+  setsid nohup npx next start -H 127.0.0.1 -p "$port" >"$LOG_DIR/app-$port.log" 2>&1 &
   APP_PID=$!
   for _ in $(seq 1 120); do
     curl -fsS "http://127.0.0.1:$port/api/health" >/dev/null 2>&1 && return 0
@@ -157,8 +158,9 @@ start_app() {
 
 stop_app() {
   if [ -n "$APP_PID" ]; then
-    pkill -P "$APP_PID" 2>/dev/null || true
-    kill "$APP_PID" 2>/dev/null || true
+    kill -- "-$APP_PID" 2>/dev/null || kill "$APP_PID" 2>/dev/null || true
+    for _ in $(seq 1 20); do kill -0 -- "-$APP_PID" 2>/dev/null || break; sleep 0.25; done
+    kill -9 -- "-$APP_PID" 2>/dev/null || true
     APP_PID=""
   fi
 }
