@@ -1,50 +1,69 @@
 "use client";
 
 import { zodResolver } from "@hookform/resolvers/zod";
-import { useForm } from "react-hook-form";
+import { useForm, type FieldErrors } from "react-hook-form";
 import { useState } from "react";
-import { policySchema, type PolicyInput } from "@/lib/validation/policy";
-import { RULE_CODES } from "@/lib/rules/types";
+import { policyFields, policySchema, type PolicyInput } from "@/lib/validation/policy";
+import { POLICY_FIELD_LABELS, RAISABLE_RULES, RULE_LABELS } from "@/lib/labels/rules";
 
-// Rules whose default level is warn, which a policy may raise to block.
-const RAISABLE = ["IN_CHARGE", "CLIMB_CERT"] as const;
-
-const FIELDS: { name: keyof PolicyInput; label: string; step: string }[] = [
-  { name: "minRestHours", label: "Minimum rest between stretches (h)", step: "0.5" },
-  { name: "maxShiftHours", label: "Maximum stretch containing an order (h)", step: "0.5" },
-  { name: "credentialWarnDays", label: "Credential warning window (days)", step: "1" },
-  { name: "regularHoursDay", label: "Regular hours per day", step: "0.5" },
-  { name: "regularHoursWeek", label: "Regular hours per week", step: "0.5" },
-  { name: "replyDeadlineHours", label: "Flag no reply this many hours before start", step: "1" },
+const FIELDS: { name: Exclude<keyof PolicyInput, "raisedToBlock">; step: string }[] = [
+  { name: "minRestHours", step: "0.5" },
+  { name: "maxShiftHours", step: "0.5" },
+  { name: "credentialWarnDays", step: "1" },
+  { name: "regularHoursDay", step: "0.5" },
+  { name: "regularHoursWeek", step: "0.5" },
+  { name: "replyDeadlineHours", step: "1" },
 ];
 
+type Status = { kind: "saved" | "error"; text: string } | null;
+
 export function PolicyForm({ policy }: { policy: PolicyInput }) {
-  const [saved, setSaved] = useState<string | null>(null);
-  const form = useForm<PolicyInput>({ resolver: zodResolver(policySchema) as never, defaultValues: policy });
+  const [status, setStatus] = useState<Status>(null);
+  // Only the policy's own fields: the schema is strict, and an extra key (the engine's derived
+  // rules) used to fail validation on a key no input shows, so nothing was sent and nothing said.
+  const form = useForm<PolicyInput>({ resolver: zodResolver(policySchema) as never, defaultValues: policyFields(policy) });
   const errors = form.formState.errors;
 
   async function onSubmit(values: PolicyInput) {
-    setSaved(null);
-    const res = await fetch("/api/policies", {
-      method: "PUT",
-      headers: { "content-type": "application/json" },
-      body: JSON.stringify(values),
-    });
-    const body = await res.json();
-    if (!res.ok) {
-      for (const issue of body.issues ?? []) form.setError(issue.field as keyof PolicyInput, { message: issue.message });
-      setSaved(body.error ?? "Not saved.");
-      return;
+    setStatus(null);
+    try {
+      const res = await fetch("/api/policies", {
+        method: "PUT",
+        headers: { "content-type": "application/json" },
+        body: JSON.stringify(policyFields(values)),
+      });
+      const body = await res.json().catch(() => ({}));
+      if (!res.ok) {
+        for (const issue of body.issues ?? []) {
+          if (issue.field in POLICY_FIELD_LABELS) form.setError(issue.field as keyof PolicyInput, { message: issue.message });
+        }
+        setStatus({ kind: "error", text: `Not saved: ${body.error ?? `the server answered ${res.status}`}` });
+        return;
+      }
+      form.reset(policyFields(body));
+      setStatus({ kind: "saved", text: "Saved. Open boards re-check at once." });
+    } catch {
+      setStatus({ kind: "error", text: "Not saved: the server could not be reached." });
     }
-    setSaved("Saved. Open boards re-check at once.");
+  }
+
+  function onInvalid(errs: FieldErrors<PolicyInput>) {
+    const first = Object.values(errs)[0];
+    setStatus({ kind: "error", text: `Not saved: ${String(first?.message ?? "check the fields marked above")}` });
+  }
+
+  const raised = form.watch("raisedToBlock") ?? [];
+  function toggle(code: string, on: boolean) {
+    const next = on ? [...new Set([...raised, code])] : raised.filter((r) => r !== code);
+    form.setValue("raisedToBlock", next as PolicyInput["raisedToBlock"], { shouldDirty: true });
   }
 
   return (
-    <form onSubmit={form.handleSubmit(onSubmit)} className="grid gap-3 sm:grid-cols-2" noValidate>
+    <form onSubmit={form.handleSubmit(onSubmit, onInvalid)} className="grid gap-3 sm:grid-cols-2" noValidate>
       {FIELDS.map((f) => (
         <div key={f.name}>
           <label className="label" htmlFor={f.name}>
-            {f.label}
+            {POLICY_FIELD_LABELS[f.name]}
           </label>
           <input
             id={f.name}
@@ -53,25 +72,58 @@ export function PolicyForm({ policy }: { policy: PolicyInput }) {
             className="field"
             {...form.register(f.name, { valueAsNumber: true })}
             aria-invalid={errors[f.name] ? true : undefined}
+            aria-describedby={errors[f.name] ? `${f.name}-error` : undefined}
           />
-          {errors[f.name] && <p className="mt-1 text-xs font-semibold text-block">✖ {String(errors[f.name]?.message)}</p>}
+          {errors[f.name] && (
+            <p id={`${f.name}-error`} className="mt-1 text-xs font-semibold text-block">
+              ✖ {String(errors[f.name]?.message)}
+            </p>
+          )}
         </div>
       ))}
       <fieldset className="sm:col-span-2">
-        <legend className="label">Raise to block</legend>
-        {RAISABLE.filter((r) => (RULE_CODES as readonly string[]).includes(r)).map((r) => (
-          <label key={r} className="mr-4 inline-flex items-center gap-2 text-sm">
-            <input type="checkbox" value={r} {...form.register("raisedToBlock")} /> {r}
-          </label>
-        ))}
+        <legend className="label">{POLICY_FIELD_LABELS.raisedToBlock}</legend>
+        <p className="mb-2 text-xs text-ink-500">These rules can come out as a warning; tick one to make it block instead.</p>
+        <ul className="grid gap-2">
+          {RAISABLE_RULES.map((r) => (
+            <li key={r}>
+              <label className="flex items-start gap-2 text-sm">
+                <input
+                  type="checkbox"
+                  className="mt-1"
+                  checked={raised.includes(r)}
+                  onChange={(e) => toggle(r, e.target.checked)}
+                  aria-describedby={`raise-${r}`}
+                />
+                <span>
+                  <span className="font-semibold">{RULE_LABELS[r].name}</span>{" "}
+                  <span className="text-xs text-ink-500">({r})</span>
+                  <span id={`raise-${r}`} className="block text-xs text-ink-700">
+                    {RULE_LABELS[r].meaning} It {RULE_LABELS[r].warnsWhen}.
+                  </span>
+                </span>
+              </label>
+            </li>
+          ))}
+        </ul>
+        {/* Rules raised earlier that this list no longer offers stay raised, and are shown. */}
+        {raised.filter((r) => !(RAISABLE_RULES as readonly string[]).includes(r)).length > 0 && (
+          <p className="mt-2 text-xs text-ink-700">
+            Also raised: {raised.filter((r) => !(RAISABLE_RULES as readonly string[]).includes(r)).map((r) => RULE_LABELS[r]?.name ?? r).join(", ")}
+          </p>
+        )}
       </fieldset>
       <div className="flex items-center gap-3 sm:col-span-2">
         <button className="btn-primary" type="submit" disabled={form.formState.isSubmitting}>
           Save policy
         </button>
-        {saved && (
-          <span role="status" className="text-sm text-ink-700">
-            {saved}
+        {status && (
+          <span
+            role={status.kind === "error" ? "alert" : "status"}
+            className={`text-sm font-semibold ${status.kind === "error" ? "text-block" : "text-clear"}`}
+          >
+            {status.kind === "error" ? "✖ " : "✓ "}
+            {status.text}
           </span>
         )}
       </div>
