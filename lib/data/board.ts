@@ -64,6 +64,9 @@ interface OrderRow {
   briefing_state: string;
   locate_ticket: string | null;
   locate_valid_through: string | null;
+  near_energized_kv: string | null;
+  phases: number;
+  system_kv: string | null;
   version: number;
   timezone: string;
 }
@@ -93,6 +96,9 @@ const ORDER_COLUMNS = [
   "o.briefing_state",
   "o.locate_ticket",
   "o.locate_valid_through",
+  "o.near_energized_kv",
+  "o.phases",
+  "o.system_kv",
   "o.version",
   "y.timezone",
 ];
@@ -104,11 +110,40 @@ function orderQuery(db: Knex | Knex.Transaction) {
     .select(ORDER_COLUMNS);
 }
 
-function toRuleOrder(o: OrderRow): WorkOrder {
+/** A multi-day order's worked shifts (epoch ms), by order id. */
+type ShiftMap = Map<number, { start: number; end: number }[]>;
+
+async function orderShifts(db: Knex | Knex.Transaction, orderIds: number[]): Promise<ShiftMap> {
+  const m: ShiftMap = new Map();
+  if (!orderIds.length) return m;
+  const rows = await db("work_order_shifts").whereIn("work_order_id", orderIds).orderBy(["work_order_id", "start_at"]).select("work_order_id", "start_at", "end_at");
+  for (const r of rows) {
+    const list = m.get(r.work_order_id) ?? [];
+    list.push({ start: ms(r.start_at), end: ms(r.end_at) });
+    m.set(r.work_order_id, list);
+  }
+  return m;
+}
+
+const kv = (v: string | number | null | undefined) => (v === null || v === undefined ? null : Number(v));
+
+function toRuleOrder(o: OrderRow, shifts?: ShiftMap): WorkOrder {
   const start = ms(o.start_at);
   const end = ms(o.end_at);
   const exception = (o.crew_exception as WorkOrder["exception"]) ?? (o.emergency ? "emergency" : null);
+  const ticket = o.locate_ticket?.trim();
+  // Issue 14 (CREW-CHECK.md, Corrections 2, 6, 7 and 8): the site's nearby voltage, a
+  // single-phase tap's phases and system voltage, the order's shifts and its locate ticket.
+  const site = {
+    nearEnergizedKv: kv(o.near_energized_kv),
+    phases: o.phases === 1 ? 1 : 3,
+    systemKv: kv(o.system_kv),
+    digs: Boolean(o.digs),
+    locate: ticket && o.locate_valid_through ? { ticket, validThrough: o.locate_valid_through } : null,
+    ...(shifts?.get(o.id)?.length ? { shifts: shifts.get(o.id) } : {}),
+  };
   return {
+    ...site,
     id: String(o.id),
     title: o.title,
     start,
@@ -179,6 +214,7 @@ export async function buildSnapshot(
   const to = new Date(opts.windowEnd + CONTEXT_HOURS * HOUR);
   const workerIds = [...new Set([...opts.workerIds, ...opts.assignments.map((a) => a.worker_id)])];
   const policy = await getPolicy(db, organisationId);
+  const shiftsOf = await orderShifts(db, opts.orders.map((o) => o.id));
   if (workerIds.length === 0) {
     return {
       policy,
@@ -186,7 +222,7 @@ export async function buildSnapshot(
         timezone,
         policy: policy.rules,
         workers: [],
-        workOrders: opts.orders.map(toRuleOrder),
+        workOrders: opts.orders.map((o) => toRuleOrder(o, shiftsOf)),
         assignments: [],
       } satisfies DaySnapshot,
       workerRows: [] as Record<string, unknown>[],
@@ -239,6 +275,7 @@ export async function buildSnapshot(
   const contextOrders = contextOrderIds.length
     ? ((await orderQuery(db).whereIn("o.id", contextOrderIds)) as OrderRow[])
     : [];
+  for (const [id, list] of await orderShifts(db, contextOrderIds)) shiftsOf.set(id, list);
 
   const credsBy = groupBy(creds, (c) => c.worker_id);
   const unavailBy = groupBy(unavail, (u) => u.worker_id);
@@ -258,7 +295,7 @@ export async function buildSnapshot(
     timezone,
     policy: policy.rules,
     workers,
-    workOrders: [...opts.orders, ...contextOrders].map(toRuleOrder),
+    workOrders: [...opts.orders, ...contextOrders].map((o) => toRuleOrder(o, shiftsOf)),
     assignments: all.map(
       (a): Assignment => ({ workOrderId: String(a.work_order_id), workerId: String(a.worker_id), position: a.position }),
     ),
@@ -473,5 +510,5 @@ export function unresolvedBlocks(findings: Finding[], overrides: OverrideView[])
   return findings.filter((f) => f.level === "block" && (f.locked || !valid.has(findingKey(f))));
 }
 
-export { orderQuery, liveAssignments, toRuleOrder };
+export { orderQuery, liveAssignments, toRuleOrder, orderShifts };
 export type { OrderRow, LiveAssignment };
