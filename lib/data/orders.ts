@@ -128,6 +128,9 @@ function toListItem(r: Record<string, any>): OrderListItem {
     emergency: Boolean(r.emergency),
     energized: Boolean(r.energized),
     voltageKv: num(r.voltage_kv),
+    nearEnergizedKv: num(r.near_energized_kv),
+    phases: Number(r.phases) === 1 ? 1 : 3,
+    systemKv: num(r.system_kv),
     locateTicket: r.locate_ticket ?? null,
     locateValidThrough: r.locate_valid_through ?? null,
     locateWarning: null,
@@ -193,6 +196,7 @@ export async function getOrder(db: Q, organisationId: number, id: number): Promi
     .orderBy("w.last_name")
     .select("tr.id", "tr.worker_id", "tr.start_at", "tr.end_at", "w.first_name", "w.last_name");
   const local = (d: Date | null) => (d ? epochToZonedWallTime(new Date(d).getTime(), tz) : null);
+  const shiftRows = await db("work_order_shifts").where("work_order_id", id).orderBy(["start_at", "id"]).select("start_at", "end_at");
   return {
     ...item,
     yardName: String(r.yard_name),
@@ -217,6 +221,7 @@ export async function getOrder(db: Q, organisationId: number, id: number): Promi
       endLocal: epochToZonedWallTime(new Date(t.end_at).getTime(), tz),
       hours: Math.round(((new Date(t.end_at).getTime() - new Date(t.start_at).getTime()) / 3_600_000) * 100) / 100,
     })),
+    shifts: shiftRows.map((s) => ({ startLocal: local(s.start_at)!, endLocal: local(s.end_at)! })),
   };
 }
 
@@ -264,6 +269,9 @@ export interface OrderTemplate {
   driverLicence: string | null;
   locateTicket: string | null;
   locateValidThrough: string | null;
+  nearEnergizedKv?: number | null;
+  phases?: 1 | 3;
+  systemKv?: number | null;
 }
 
 export function templateColumns(t: OrderTemplate) {
@@ -284,7 +292,23 @@ export function templateColumns(t: OrderTemplate) {
     driver_licence: t.driverLicence,
     locate_ticket: t.locateTicket,
     locate_valid_through: t.locateValidThrough,
+    near_energized_kv: t.nearEnergizedKv ?? null,
+    phases: t.phases ?? 3,
+    system_kv: t.phases === 1 ? (t.systemKv ?? null) : null,
   };
+}
+
+/** Replaces an order's shifts (wall clock in its zone); a time that cannot be read is a 422 naming the row. */
+export async function writeShifts(trx: Knex.Transaction, orderId: number, shifts: { start: string; end: string }[], timezone: string) {
+  await trx("work_order_shifts").where("work_order_id", orderId).delete();
+  if (!shifts.length) return;
+  await trx("work_order_shifts").insert(
+    shifts.map((s, i) => ({
+      work_order_id: orderId,
+      start_at: new Date(instant(s.start, timezone, `shifts.${i}.start`)),
+      end_at: new Date(instant(s.end, timezone, `shifts.${i}.end`)),
+    })),
+  );
 }
 
 export interface NewOrderRow {
@@ -376,7 +400,8 @@ export async function createOrder(trx: Knex.Transaction, actor: Actor, input: Or
       positions: input.positions.map((p) => p.position),
     },
   ]);
-  await audit(trx, actor, org, "order.create", "work_order", id, { title: input.title, workDate, yard: yard.code });
+  await writeShifts(trx, id, input.shifts ?? [], yard.timezone);
+  await audit(trx, actor, org, "order.create", "work_order", id, { title: input.title, workDate, yard: yard.code, ...(input.shifts?.length ? { shifts: input.shifts.length } : {}) });
   await boardEvent(trx, { organisationId: org, yardId: yard.id, day: workDate, kind: "order", payload: { orderId: id } });
   return { id, workDate };
 }
@@ -403,6 +428,10 @@ const CHANGE_KEYS = [
   "locateValidThrough",
   "actualStart",
   "actualEnd",
+  "nearEnergizedKv",
+  "phases",
+  "systemKv",
+  "shifts",
 ] as const;
 
 /**
@@ -482,6 +511,7 @@ export async function updateOrder(trx: Knex.Transaction, actor: Actor, id: numbe
       version: current.version + 1,
       updated_at: new Date(),
     });
+  if (changed.includes("shifts") || yard.timezone !== current.timezone) await writeShifts(trx, id, merged.shifts ?? [], yard.timezone);
   const wasDone = current.status === "done";
   const timeTouched = changed.some((k) => k === "status" || k === "actualStart" || k === "actualEnd");
   let crew: number[] = [];

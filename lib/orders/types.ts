@@ -45,6 +45,12 @@ export interface OrderListItem {
   emergency: boolean;
   energized: boolean;
   voltageKv: number | null;
+  /** Highest voltage of energized parts within reach when the work is de-energized (kV). */
+  nearEnergizedKv: number | null;
+  /** 1: a single-phase tap (voltageKv is to ground); 3 otherwise. */
+  phases: 1 | 3;
+  /** A single-phase tap's system voltage, phase to phase (kV). */
+  systemKv: number | null;
   locateTicket: string | null;
   locateValidThrough: string | null;
   locateWarning: string | null;
@@ -70,6 +76,8 @@ export interface OrderView extends OrderListItem {
   seats: OrderSeat[];
   series: SeriesView | null;
   timeRecords: { id: number; workerId: number; workerName: string; startLocal: string; endLocal: string; hours: number }[];
+  /** A multi-day order's worked shifts, wall clock in the yard's zone. */
+  shifts: { startLocal: string; endLocal: string }[];
 }
 
 export interface WorkTypeView {

@@ -40,6 +40,10 @@ export const positionList = z
   .min(1, "An order needs at least one position")
   .max(16, "At most 16 positions");
 
+export const shiftList = z
+  .array(z.object({ start: wallTime("the shift's start"), end: wallTime("the shift's end") }))
+  .max(31, "At most 31 shifts");
+
 export const recurrenceInput = z.object({
   rrule: z.string().max(500, "At most 500 characters"),
   exdates: z.array(isoDate("a skipped date")).max(366).default([]),
@@ -69,6 +73,15 @@ const fieldShapes = {
   actualStart: wallTime("the actual start").nullable().optional().transform((v) => v ?? null),
   actualEnd: wallTime("the actual end").nullable().optional().transform((v) => v ?? null),
   recurrence: recurrenceInput.nullable().optional(),
+  // Issue 14 (../shared/CREW-CHECK.md, Corrections 2, 6 and 8).
+  /** Highest voltage of exposed energized parts within reach when the work itself is de-energized. */
+  nearEnergizedKv: z.number({ error: "Nearby voltage must be a number of kV" }).min(0).max(800).nullable().optional().transform((v) => v ?? null),
+  /** 1 for a single-phase tap (its voltage is then to ground), 3 otherwise. */
+  phases: z.union([z.literal(1), z.literal(3)], { error: "Phases is 1 (single-phase tap) or 3" }).optional().transform((v) => v ?? 3),
+  /** The phase-to-phase voltage of the system a single-phase tap comes off. */
+  systemKv: z.number({ error: "System voltage must be a number of kV" }).min(0).max(800).nullable().optional().transform((v) => v ?? null),
+  /** A multi-day order's worked shifts, wall clock in the yard's zone. */
+  shifts: shiftList.optional().transform((v) => v ?? []),
 };
 
 /** The fields of a work order as the form edits them (no defaults). Times are wall clock in the yard's zone. */
@@ -96,6 +109,7 @@ export function checkOrder(v: Partial<OrderFieldsOut>, ctx: z.RefinementCtx) {
     else if (minutes * 60_000 > MAX_ORDER_MS)
       ctx.addIssue({ code: "custom", path: ["end"], message: "An order runs at most 7 days; split longer work" });
   }
+  checkSite(v, ctx);
   if (v.status === "on_hold" && !v.holdReason)
     ctx.addIssue({ code: "custom", path: ["holdReason"], message: "Say why the order is on hold" });
   if (v.status === "done") {
@@ -115,6 +129,40 @@ export function checkOrder(v: Partial<OrderFieldsOut>, ctx: z.RefinementCtx) {
     if (!r.ok) ctx.addIssue({ code: "custom", path: ["recurrence", "rrule"], message: r.message });
     if (v.status && !["draft", "planned"].includes(v.status))
       ctx.addIssue({ code: "custom", path: ["status"], message: "A repeating order starts as draft or planned" });
+  }
+}
+
+/**
+ * Shifts lie inside the order and do not overlap (touching is fine); a single-phase tap's system
+ * voltage is above its voltage to ground. Paths name the row: `shifts.0.end`.
+ */
+function checkSite(v: Partial<OrderFieldsOut>, ctx: z.RefinementCtx) {
+  if (v.phases === 1 && v.systemKv != null && v.voltageKv != null && v.systemKv <= v.voltageKv)
+    ctx.addIssue({ code: "custom", path: ["systemKv"], message: "A single-phase tap's system voltage (phase to phase) is above its voltage to ground" });
+  if (v.phases === 3 && v.systemKv != null && v.voltageKv != null && v.systemKv !== v.voltageKv)
+    ctx.addIssue({ code: "custom", path: ["systemKv"], message: "System voltage is only for a single-phase tap; a three-phase order's voltage is the system's" });
+  const shifts = v.shifts ?? [];
+  if (!shifts.length) return;
+  const ok = (t: string | undefined) => !!t && WALL_RE.test(t);
+  const orderOk = ok(v.start) && ok(v.end);
+  const rows = shifts.map((sh, i) => ({ i, start: ok(sh.start) ? wallKey(sh.start) : null, end: ok(sh.end) ? wallKey(sh.end) : null }));
+  for (const r of rows) {
+    if (!r.start || !r.end) continue;
+    if (r.end <= r.start) {
+      ctx.addIssue({ code: "custom", path: ["shifts", r.i, "end"], message: "The shift must end after it starts" });
+      continue;
+    }
+    if (orderOk && r.start < wallKey(v.start!))
+      ctx.addIssue({ code: "custom", path: ["shifts", r.i, "start"], message: "The shift starts before the order does" });
+    if (orderOk && r.end > wallKey(v.end!))
+      ctx.addIssue({ code: "custom", path: ["shifts", r.i, "end"], message: "The shift ends after the order does" });
+  }
+  const sorted = rows.filter((r) => r.start && r.end && r.end > r.start).sort((a, b) => (a.start! < b.start! ? -1 : a.start! > b.start! ? 1 : a.i - b.i));
+  for (let k = 1; k < sorted.length; k++) {
+    const prev = sorted[k - 1];
+    const cur = sorted[k];
+    if (cur.start! < prev.end!)
+      ctx.addIssue({ code: "custom", path: ["shifts", cur.i, "start"], message: `The shift overlaps shift ${prev.i + 1}` });
   }
 }
 
