@@ -39,6 +39,7 @@ export const CLASSIFICATION_LABEL: Record<string, string> = {
 
 export const POSITION_LABEL: Record<string, string> = {
   climber: "Climber",
+  aerial: "In the bucket",
   observer: "Observer",
   operator: "Operator",
   ground: "Ground",

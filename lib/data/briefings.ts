@@ -191,7 +191,7 @@ async function orderFacts(q: Q, organisationId: number, orderId: number, lock = 
   };
 }
 
-const POSITION_ORDER = ["lead", "climber", "observer", "operator", "ground", "driver"];
+const POSITION_ORDER = ["lead", "climber", "aerial", "observer", "operator", "ground", "driver"];
 
 /** The people holding a seat on the order (live assignments), one entry per person. */
 export async function orderCrew(q: Q, orderId: number): Promise<CrewMember[]> {
@@ -282,8 +282,9 @@ export function prefill(order: OrderFacts, crew: CrewMember[], leadWorkerId: num
     d.hazards.energized.present = true;
     d.hazards.energized.notes = `Energized ${order.voltageKv !== null ? `${order.voltageKv} kV ` : ""}primary on this pole and the spans either side.`;
   }
-  const climbers = crew.filter((c) => c.climbs).map((c) => c.workerId);
-  d.dropZone.entrants = crew.filter((c) => !c.climbs && (c.positions.includes("ground") || c.positions.includes("lead"))).map((c) => c.workerId);
+  // Those aloft: climbers and whoever is in the bucket (CREW-CHECK.md, Corrections 3).
+  const climbers = crew.filter((c) => c.climbs || c.positions.includes("aerial")).map((c) => c.workerId);
+  d.dropZone.entrants = crew.filter((c) => !climbers.includes(c.workerId) && (c.positions.includes("ground") || c.positions.includes("lead"))).map((c) => c.workerId);
   const observer = crew.find((c) => c.positions.includes("observer"));
   const notClimbing = crew.filter((c) => !climbers.includes(c.workerId));
   d.emergency.callerWorkerId = observer?.workerId ?? notClimbing[0]?.workerId ?? leadWorkerId ?? null;

@@ -82,6 +82,7 @@ export function ordinal(n: number): string {
 
 export const POSITION_WORD: Record<Position, string> = {
   climber: "climber",
+  aerial: "in-the-bucket",
   observer: "observer",
   operator: "operator",
   ground: "ground hand",
