@@ -1,7 +1,8 @@
-// CLIMB_CERT: everyone in a climber position holds a climbing qualification valid on the
-// order's start date; one that lapses soon after is a warning.
+// CLIMB_CERT: everyone in a climber position holds a climbing qualification valid on every day
+// of the order, its last day included (Corrections 6); one that lapses soon after the first day
+// is a warning.
 
-import { finding, who, type RuleCheck } from "./common";
+import { dateWords, finding, plural, who, type RuleCheck } from "./common";
 import { daysBetween } from "./time";
 import type { Finding } from "./types";
 
@@ -22,6 +23,8 @@ export const climbCert: RuleCheck = (orders, ix) => {
   const out: Finding[] = [];
   const warnDays = ix.policy.credentialWarnDays;
   for (const order of orders) {
+    const last = ix.lastDay(order);
+    const multiDay = last !== order.startDate;
     for (const w of ix.crew(order.id).holders.get("climber") ?? []) {
       const exp = ix.expiryOf(w, "climbing");
       if (exp === undefined) {
@@ -42,8 +45,20 @@ export const climbCert: RuleCheck = (orders, ix) => {
             "block",
             order,
             w.id,
-            `${who(w)}'s climbing qualification expired on ${exp}, before the order starts on ${order.startDate}. ` +
+            `${who(w)}'s climbing qualification expired on ${dateWords(exp)}, before the order starts on ${dateWords(order.startDate)}. ` +
               "Renew the climbing evaluation or assign another climber.",
+            CLIMB_CERT_SOURCE,
+          ),
+        );
+      } else if (exp !== null && exp < last) {
+        out.push(
+          finding(
+            "CLIMB_CERT",
+            "block",
+            order,
+            w.id,
+            `${who(w)}'s climbing qualification expires on ${dateWords(exp)}, before the order's last day, ${dateWords(last)}. ` +
+              "It must be valid on every day of the order: renew the climbing evaluation or assign another climber.",
             CLIMB_CERT_SOURCE,
           ),
         );
@@ -54,7 +69,7 @@ export const climbCert: RuleCheck = (orders, ix) => {
             "warn",
             order,
             w.id,
-            `${who(w)}'s climbing qualification expires on ${exp}, within ${warnDays} days of the order's start on ${order.startDate}. ` +
+            `${who(w)}'s climbing qualification expires on ${dateWords(exp)}, within ${plural(warnDays, "day")} of the order's ${multiDay ? "first day" : "start"}, ${dateWords(order.startDate)}. ` +
               "Schedule the renewal.",
             CLIMB_CERT_SOURCE,
           ),

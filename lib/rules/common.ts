@@ -1,5 +1,5 @@
 import type { SnapshotIndex } from "./snapshot-index";
-import type { Classification, Finding, Level, RuleCode, Worker, WorkOrder } from "./types";
+import type { Classification, Finding, Level, Position, RuleCode, Worker, WorkOrder } from "./types";
 
 /** A rule evaluates a set of orders against the index and returns their findings at default level. */
 export type RuleCheck = (orders: readonly WorkOrder[], ix: SnapshotIndex) => Finding[];
@@ -47,8 +47,53 @@ export function isClimbingWork(order: WorkOrder, hasClimber: boolean): boolean {
   return order.workType === "pole_climb" || (hasClimber && order.workType !== "bucket");
 }
 
+/**
+ * A person as messages name them: the name only, never the internal id (issue 18 point 8).
+ * The finding's workerId still says exactly who it is.
+ */
 export function who(w: Worker): string {
-  return `${w.name} (${w.id})`;
+  return w.name;
+}
+
+const MONTHS = ["January", "February", "March", "April", "May", "June", "July", "August", "September", "October", "November", "December"];
+
+/** "2027-05-31" -> "31 May 2027" (dates in words in every message). */
+export function dateWords(iso: string): string {
+  const m = /^(\d{4})-(\d{2})-(\d{2})/.exec(iso);
+  if (!m) return iso;
+  return `${Number(m[3])} ${MONTHS[Number(m[2]) - 1]} ${m[1]}`;
+}
+
+/** "2027-04-06T07:00" (a zoned wall time) -> "6 April 2027 07:00". */
+export function wallTimeWords(wall: string): string {
+  return `${dateWords(wall.slice(0, 10))} ${wall.slice(11, 16)}`;
+}
+
+/** Above 0.6 kV: the two-worker minimum's threshold (more than 600 volts). */
+export const HIGH_VOLTAGE_KV = 0.6;
+
+/** The stated voltage of exposed parts near de-energized work is above kv (Corrections 2). */
+export function nearAbove(order: WorkOrder, kv: number): boolean {
+  return order.nearEnergizedKv != null && order.nearEnergizedKv > kv;
+}
+
+/** The work itself, or parts within reach of it, are energized above kv. */
+export function onOrNearAbove(order: WorkOrder, kv: number): boolean {
+  return energizedAbove(order, kv) || nearAbove(order, kv);
+}
+
+/**
+ * Who is aloft on an order (Corrections 3). On bucket work: the people in `aerial` positions,
+ * or the lead when no `aerial` position is filled; a `climber` on bucket work was the person in
+ * the bucket before `aerial` existed, so climbers count as aloft too. On every other order:
+ * the climbers and anyone in an `aerial` position.
+ */
+export function aloftIds(order: WorkOrder, holders: ReadonlyMap<Position, readonly Worker[]>): Set<string> {
+  const ids = new Set<string>();
+  for (const w of holders.get("aerial") ?? []) ids.add(w.id);
+  for (const w of holders.get("climber") ?? []) ids.add(w.id);
+  if (order.workType === "bucket" && !holders.has("aerial")) for (const w of holders.get("lead") ?? []) ids.add(w.id);
+  return ids;
 }
 
 export function plural(n: number, one: string, many = `${one}s`): string {

@@ -1,15 +1,35 @@
-// CREW_MIN: two qualified workers on site for energized installation, removal or repair
-// work above 600 V, and the order's own minimum counting everyone on site.
+// CREW_MIN: the two-worker minimum of 29 CFR 1910.269(l)(2)(i), counting qualified employees,
+// and the order's own minimum from the organisation's crew template, counting everyone on site.
+// Both requirements are stated in one finding per order (the board keys overrides by rule,
+// order and worker, and a card showing CREW_MIN twice, a warning and a block, read as a
+// contradiction; issue 18 point 9).
 
-import { energizedAbove, finding, hasJourneyLevel, plural, type RuleCheck } from "./common";
+import {
+  energizedAbove,
+  finding,
+  hasJourneyLevel,
+  HIGH_VOLTAGE_KV,
+  nearAbove,
+  plural,
+  type RuleCheck,
+} from "./common";
+import type { SnapshotIndex } from "./snapshot-index";
 import type { CrewException, Finding, Worker, WorkOrder } from "./types";
 
+/** The paragraph as a whole (kept for callers that name it). */
 export const CREW_MIN_SOURCE = "29 CFR 1910.269(l)(2)(i)";
+/** Two qualified employees, not two of anyone: OSHA's letter of interpretation of 1994-11-08. */
+export const QUALIFIED_LETTER = "OSHA letter of interpretation of 1994-11-08 (two qualified employees)";
+/** The order's own minimum is the organisation's crew template: policy, not regulation. */
+export const CREW_TEMPLATE_SOURCE = "the organisation's crew template for this work (policy)";
 /** The exceptions (routine switching, live-line tools out of reach, emergency repair). */
 export const CREW_MIN_EXCEPTION_SOURCE = "29 CFR 1910.269(l)(2)(ii)";
 
-const TWO_WORKER_TYPES = new Set(["pole_climb", "bucket", "digger_derrick", "storm"]);
-const HIGH_VOLTAGE_KV = 0.6;
+const EXCEPTION_PARAGRAPH: Record<CrewException, string> = {
+  routine_switching: "29 CFR 1910.269(l)(2)(ii)(A)",
+  live_line_tools: "29 CFR 1910.269(l)(2)(ii)(B)",
+  emergency: "29 CFR 1910.269(l)(2)(ii)(C)",
+};
 
 const EXCEPTION_WORDS: Record<CrewException, string> = {
   routine_switching: "routine switching",
@@ -17,67 +37,121 @@ const EXCEPTION_WORDS: Record<CrewException, string> = {
   emergency: "emergency repair to safeguard the public",
 };
 
-export function twoWorkerRuleApplies(order: WorkOrder): boolean {
-  return TWO_WORKER_TYPES.has(order.workType) && energizedAbove(order, HIGH_VOLTAGE_KV);
+/** Why the two-worker minimum applies to an order: the paragraphs of (l)(2)(i) and the words for them. */
+export interface TwoWorkerBasis {
+  paragraphs: string[];
+  why: string;
 }
 
-/** Journeymen, crew leads and operators; apprentices only with a journeyman or crew lead on the order. */
-export function qualifiedCount(people: readonly Worker[]): number {
-  const supervised = hasJourneyLevel(people);
-  return people.filter((p) => {
-    switch (p.classification) {
-      case "journeyman":
-      case "crew_lead":
-      case "operator":
-        return true;
-      case "apprentice":
-        return supervised;
-      case "ground_hand":
-        return false;
-    }
-  }).length;
+function kvWords(kv: number | null): string {
+  return kv === null ? "of unknown voltage (counted as above 600 V)" : `at ${kv} kV`;
 }
+
+/**
+ * Corrections 2: installation, removal or repair work of any work type except patrol, when the
+ * work is energized above 0.6 kV ((l)(2)(i)(A), lines and equipment energized) or when exposed
+ * parts nearby are above 0.6 kV ((l)(2)(i)(B)); a digger derrick is mechanical equipment other
+ * than an insulated aerial lift, so near parts above 0.6 kV (l)(2)(i)(D) applies to it as well.
+ * Null when the minimum does not apply.
+ */
+export function twoWorkerBasis(order: WorkOrder): TwoWorkerBasis | null {
+  if (order.workType === "patrol") return null;
+  const paragraphs: string[] = [];
+  const whys: string[] = [];
+  if (energizedAbove(order, HIGH_VOLTAGE_KV)) {
+    paragraphs.push("(A)");
+    whys.push(`the work is energized ${kvWords(order.voltageKv)}`);
+  } else if (nearAbove(order, HIGH_VOLTAGE_KV)) {
+    paragraphs.push("(B)");
+    whys.push(`exposed parts at ${order.nearEnergizedKv} kV are within reach of the de-energized work`);
+  }
+  if (paragraphs.length === 0) return null;
+  if (order.workType === "digger_derrick") {
+    paragraphs.push("(D)");
+    whys.push("a digger derrick is mechanical equipment working near them");
+  }
+  return { paragraphs: paragraphs.map((p) => `29 CFR 1910.269(l)(2)(i)${p}`), why: whys.join(" and ") };
+}
+
+export function twoWorkerRuleApplies(order: WorkOrder): boolean {
+  return twoWorkerBasis(order) !== null;
+}
+
+/**
+ * Whether a worker counts toward the two-worker minimum (Corrections 1): journeymen and crew
+ * leads; apprentices only with a journeyman or crew lead on the order; operators only with the
+ * `qualified_electrical` credential valid on every day of the order; ground hands never.
+ */
+export function countsAsQualified(w: Worker, people: readonly Worker[], ix: SnapshotIndex, order: WorkOrder): boolean {
+  switch (w.classification) {
+    case "journeyman":
+    case "crew_lead":
+      return true;
+    case "apprentice":
+      return hasJourneyLevel(people);
+    case "operator":
+      return ix.holdsThrough(w, "qualified_electrical", order);
+    case "ground_hand":
+      return false;
+  }
+}
+
+export function qualifiedCount(people: readonly Worker[], ix: SnapshotIndex, order: WorkOrder): number {
+  return people.filter((p) => countsAsQualified(p, people, ix, order)).length;
+}
+
+const WHO_COUNTS =
+  "journeymen, crew leads, apprentices with a journeyman or crew lead on the order, and equipment operators who hold the qualified-electrical credential";
 
 export const crewMin: RuleCheck = (orders, ix) => {
   const out: Finding[] = [];
   for (const order of orders) {
     const { people } = ix.crew(order.id);
-    if (twoWorkerRuleApplies(order)) {
-      const qualified = qualifiedCount(people);
+    const parts: Array<{ level: "block" | "warn"; text: string; source: string }> = [];
+
+    // The order's own minimum: the crew template, counting everyone on site; no exception lowers it.
+    if (order.minCrew !== null && people.length < order.minCrew) {
+      const missing = order.minCrew - people.length;
+      parts.push({
+        level: "block",
+        text:
+          `This order's crew template asks for at least ${plural(order.minCrew, "person", "people")} on site; ` +
+          `${people.length} assigned. Add ${plural(missing, "more worker", "more workers")}.`,
+        source: CREW_TEMPLATE_SOURCE,
+      });
+    }
+
+    const basis = twoWorkerBasis(order);
+    if (basis) {
+      const qualified = qualifiedCount(people, ix, order);
       if (qualified < 2) {
-        const missing = 2 - qualified;
-        const what = missing === 1 ? "a qualified worker" : "2 qualified workers";
+        const what = qualified === 1 ? "a second qualified worker" : "2 qualified workers";
         const base =
-          "Needs at least 2 qualified workers on site (journeymen, crew leads, operators or supervised apprentices); " +
-          `${qualified} assigned.`;
+          `At least 2 qualified workers must be on site because ${basis.why}; ` +
+          `${qualified} of the crew ${qualified === 1 ? "counts" : "count"} (${WHO_COUNTS}).`;
+        const legal = `${basis.paragraphs.join(", ")}; ${QUALIFIED_LETTER}`;
         if (order.exception) {
-          out.push(
-            finding(
-              "CREW_MIN",
-              "warn",
-              order,
-              null,
-              `${base} Excepted as ${EXCEPTION_WORDS[order.exception]}: confirm the exception holds on site, or add ${what}.`,
-              CREW_MIN_EXCEPTION_SOURCE,
-            ),
-          );
+          parts.push({
+            level: "warn",
+            text: `${base} The order is excepted as ${EXCEPTION_WORDS[order.exception]}: confirm the exception holds on site, or add ${what}.`,
+            source: `${EXCEPTION_PARAGRAPH[order.exception]} (exception to ${basis.paragraphs.join(", ")})`,
+          });
         } else {
-          out.push(finding("CREW_MIN", "block", order, null, `${base} Add ${what}.`, CREW_MIN_SOURCE));
+          parts.push({ level: "block", text: `${base} Add ${what}.`, source: legal });
         }
       }
     }
-    // The order's own minimum is policy: it applies to every work type and no exception lowers it.
-    if (order.minCrew !== null && people.length < order.minCrew) {
-      const missing = order.minCrew - people.length;
+
+    if (parts.length > 0) {
+      const level = parts.some((p) => p.level === "block") ? "block" : "warn";
       out.push(
         finding(
           "CREW_MIN",
-          "block",
+          level,
           order,
           null,
-          `Needs at least ${order.minCrew} workers on site; ${people.length} assigned. ` +
-            `Add ${plural(missing, "more worker", "more workers")} (this order's own minimum counts everyone on site).`,
-          CREW_MIN_SOURCE,
+          parts.map((p) => p.text).join(" "),
+          parts.map((p) => p.source).join("; "),
         ),
       );
     }

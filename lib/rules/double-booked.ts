@@ -1,19 +1,22 @@
 // DOUBLE_BOOKED: one worker on two orders that overlap in time (end == start is not overlap).
+// Locked: nobody can be in two places, so no override accepts it (issue 15).
 
-import { finding, who, type RuleCheck } from "./common";
+import { finding, wallTimeWords, who, type RuleCheck } from "./common";
+import { epochToZonedWallTime } from "./time";
 import type { Finding } from "./types";
 
 export const DOUBLE_BOOKED_SOURCE = "scheduling conflict (no regulation)";
 
 export const doubleBooked: RuleCheck = (orders, ix) => {
   const out: Finding[] = [];
+  const local = (ms: number) => wallTimeWords(epochToZonedWallTime(ms, ix.timezone));
   for (const order of orders) {
     for (const w of ix.crew(order.id).people) {
       const clashes = ix
         .ordersOf(w.id)
         .filter((o) => o.id !== order.id && o.start < order.end && order.start < o.end)
-        .map((o) => o.id)
-        .sort((a, b) => (a < b ? -1 : a > b ? 1 : 0));
+        .sort((a, b) => (a.id < b.id ? -1 : a.id > b.id ? 1 : 0))
+        .map((o) => `"${o.title}" (${local(o.start)} to ${local(o.end)})`);
       if (clashes.length > 0) {
         out.push(
           finding(
@@ -21,8 +24,9 @@ export const doubleBooked: RuleCheck = (orders, ix) => {
             "block",
             order,
             w.id,
-            `${who(w)} is also on ${clashes.join(", ")} at an overlapping time. Remove them from one of the orders.`,
+            `${who(w)} is also on ${clashes.join(", ")} at an overlapping time. Remove them from one of the orders; this cannot be overridden.`,
             DOUBLE_BOOKED_SOURCE,
+            true,
           ),
         );
       }

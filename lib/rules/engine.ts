@@ -7,6 +7,7 @@ import { crewMin } from "./crew-min";
 import { doubleBooked } from "./double-booked";
 import { firstAid } from "./first-aid";
 import { inCharge } from "./in-charge";
+import { locate } from "./locate";
 import { observer } from "./observer";
 import { operatorCert } from "./operator-cert";
 import { qualified } from "./qualified";
@@ -30,6 +31,7 @@ export const RULES: ReadonlyArray<{ code: RuleCode; check: RuleCheck }> = [
   { code: "IN_CHARGE", check: inCharge },
   { code: "DOUBLE_BOOKED", check: doubleBooked },
   { code: "UNAVAILABLE", check: unavailable },
+  { code: "LOCATE", check: locate },
 ];
 
 /** One drop on the board. A move is a remove of `from` plus an add of `to` (same or another worker/order). */

@@ -12,7 +12,7 @@ export const firstAid: RuleCheck = (orders, ix) => {
     if (!energizedAtLeast(order, ENERGIZED_WORK_KV)) continue;
     const { people } = ix.crew(order.id);
     if (people.length < 2) continue;
-    const trained = people.filter((w) => ix.holdsOn(w, "first_aid_cpr", order.startDate)).length;
+    const trained = people.filter((w) => ix.holdsThrough(w, "first_aid_cpr", order)).length;
     if (trained < 2) {
       out.push(
         finding(
@@ -20,7 +20,7 @@ export const firstAid: RuleCheck = (orders, ix) => {
           "block",
           order,
           null,
-          `Energized work with ${people.length} people on site needs at least 2 with current first aid and CPR training; ${trained} on this order. ` +
+          `Energized work with ${people.length} people on site needs at least 2 with first aid and CPR training valid on every day of the order; ${trained} on this order. ` +
             `Add or swap in ${trained === 0 ? "2 trained workers" : "a trained worker"}.`,
           FIRST_AID_SOURCE,
         ),

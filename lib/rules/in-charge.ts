@@ -1,5 +1,6 @@
-// IN_CHARGE: an order with two or more people has someone in the lead position, the employee
-// in charge who holds the job briefing.
+// IN_CHARGE (block, Corrections 5): an order with two or more people has someone in the lead
+// position, the employee in charge who holds the job briefing; without one the briefing cannot
+// be held.
 
 import { finding, type RuleCheck } from "./common";
 import type { Finding } from "./types";
@@ -14,11 +15,11 @@ export const inCharge: RuleCheck = (orders, ix) => {
       out.push(
         finding(
           "IN_CHARGE",
-          "warn",
+          "block",
           order,
           null,
-          `${people.length} people on site and no one in the lead position. ` +
-            "Name a lead (the employee in charge, who holds the job briefing); the lead may also hold another position.",
+          `${people.length} people on site and no one in the lead position: the job briefing cannot be held without the employee in charge. ` +
+            "Name a lead; the lead may also hold another position.",
           IN_CHARGE_SOURCE,
         ),
       );

@@ -76,6 +76,11 @@ const workOrderSchema = z.object({
   exception: z.enum(EXCEPTIONS).nullable().default(null),
   minCrew: z.number().int().min(1).nullable().default(null),
   driverLicence: z.enum(["cdl_a", "cdl_b"]).default("cdl_b"),
+  // Corrections 2, 6 and 7 (all optional: an input without them keeps its meaning).
+  nearEnergizedKv: z.number().min(0).nullable().default(null),
+  shifts: z.array(z.object({ start: wallTime, end: wallTime })).optional(),
+  digs: z.boolean().default(false),
+  locate: z.object({ ticket: text.min(1), validThrough: isoDate }).nullable().default(null),
 });
 
 export const dayInputSchema = z.object({
@@ -165,6 +170,13 @@ export function parseDayInput(json: unknown): ParseResult {
     if (orderIds.has(o.id)) errors.push(`workOrders[${i}].id: duplicate work order id ${JSON.stringify(o.id)}`);
     orderIds.add(o.id);
     const { start, end } = interval(o.start, o.end, `workOrders[${i}]`, "start", "end");
+    const shifts = o.shifts?.map((sh, j) => {
+      const path = `workOrders[${i}].shifts[${j}]`;
+      const iv = interval(sh.start, sh.end, path, "start", "end");
+      if (iv.start < start || iv.start >= end) errors.push(`${path}.start: must be inside the order (${o.start} to ${o.end})`);
+      else if (iv.end > end) errors.push(`${path}.end: must be inside the order (${o.start} to ${o.end})`);
+      return iv;
+    });
     return {
       id: o.id,
       title: o.title,
@@ -178,6 +190,10 @@ export function parseDayInput(json: unknown): ParseResult {
       exception: o.exception ?? (o.emergency ? "emergency" : null),
       minCrew: o.minCrew,
       driverLicence: o.driverLicence,
+      nearEnergizedKv: o.nearEnergizedKv,
+      ...(shifts ? { shifts } : {}),
+      digs: o.digs,
+      locate: o.locate ? { ticket: o.locate.ticket, validThrough: o.locate.validThrough } : null,
     };
   });
 

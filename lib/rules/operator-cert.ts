@@ -10,19 +10,18 @@ export const operatorCert: RuleCheck = (orders, ix) => {
   const out: Finding[] = [];
   for (const order of orders) {
     const { people, positionsOf } = ix.crew(order.id);
-    const date = order.startDate;
     const licence = order.driverLicence ?? "cdl_b";
     for (const w of people) {
       const positions = positionsOf.get(w.id)!;
       const problems: string[] = [];
-      if (positions.has("operator") && !ix.holdsOn(w, "equipment_operator", date)) {
-        problems.push("has no equipment operator credential valid on the work day");
+      if (positions.has("operator") && !ix.holdsThrough(w, "equipment_operator", order)) {
+        problems.push("has no equipment operator credential valid on every day of the order");
       }
       if (positions.has("driver")) {
-        const ok = ix.holdsOn(w, "cdl_a", date) || (licence === "cdl_b" && ix.holdsOn(w, "cdl_b", date));
+        const ok = ix.holdsThrough(w, "cdl_a", order) || (licence === "cdl_b" && ix.holdsThrough(w, "cdl_b", order));
         if (!ok) {
           problems.push(
-            `has no ${licence === "cdl_a" ? "class A" : "class A or B"} commercial driver's licence valid on the work day (the truck needs ${licence === "cdl_a" ? "class A" : "class B"})`,
+            `has no ${licence === "cdl_a" ? "class A" : "class A or B"} commercial driver's licence valid on every day of the order (the truck needs ${licence === "cdl_a" ? "class A" : "class B"})`,
           );
         }
       }

@@ -1,6 +1,7 @@
-// QUALIFIED: on energized work the climber and lead positions hold qualified workers
-// (journeymen or crew leads); an apprentice may climb only under a journeyman or crew lead on
-// the same order, and never leads. A ground hand climbing energized work is locked.
+// QUALIFIED: on energized work the climber, aerial and lead positions hold qualified workers
+// (journeymen or crew leads); an apprentice may climb or work aloft only under a journeyman or
+// crew lead on the same order, and never leads. A ground hand climbing or aloft on energized
+// work is locked. `aerial` (the bucket) is treated like `climber` (Corrections 3).
 
 import {
   aClassification,
@@ -26,18 +27,21 @@ export const qualified: RuleCheck = (orders, ix) => {
       if (isJourneyLevel(c)) continue;
       const problems: string[] = [];
       let locked = false;
-      if (positions.has("climber")) {
+      const aloftSeats = (["climber", "aerial"] as const).filter((p) => positions.has(p));
+      if (aloftSeats.length > 0) {
+        const seat = aloftSeats.length === 2 ? "a climber and an aerial position" : aloftSeats[0] === "climber" ? "a climber position" : "an aerial position (in the bucket)";
+        const doing = aloftSeats[0] === "climber" ? "climbing" : "working aloft on";
         if (c === "apprentice") {
           const supervised = people.some((p) => p.id !== w.id && isJourneyLevel(p.classification));
           if (!supervised) {
             problems.push(
-              "is an apprentice climbing energized work without a journeyman or crew lead on the order; add one to supervise or assign a qualified climber",
+              `is an apprentice ${doing} energized work without a journeyman or crew lead on the order; add one to supervise or assign a qualified worker`,
             );
           }
         } else {
           locked = c === "ground_hand";
           problems.push(
-            `is ${aClassification(c)} in a climber position on energized work; only journeymen, crew leads or supervised apprentices may climb, so assign a qualified climber`,
+            `is ${aClassification(c)} in ${seat} on energized work; only journeymen, crew leads or supervised apprentices may work there, so assign a qualified worker`,
           );
         }
       }

@@ -1,25 +1,28 @@
-// RESCUE: someone besides the exposed worker trained to get them down: pole-top rescue for
-// climbing work, aerial-lift (lower controls) rescue on the ground for bucket work.
+// RESCUE: someone besides the exposed workers trained to get them down: pole-top rescue held by
+// someone other than every climber for climbing work; aerial-lift (lower controls) rescue held
+// by someone on site who is not aloft for bucket work (Corrections 3). An aloft worker is never
+// their own rescuer. The training must be valid on every day of the order.
 
-import { finding, isClimbingWork, type RuleCheck } from "./common";
+import { aloftIds, finding, isClimbingWork, type RuleCheck } from "./common";
 import type { Finding } from "./types";
 
-export const RESCUE_SOURCE = "29 CFR 1910.269(a)(2)(i)(B); one trained person besides the exposed worker is common practice";
+export const RESCUE_SOURCE =
+  "29 CFR 1910.269(a)(2)(i)(B) (training in emergency procedures such as pole-top and manhole rescue); one trained person besides the exposed worker is common practice";
 
 export const rescue: RuleCheck = (orders, ix) => {
   const out: Finding[] = [];
   for (const order of orders) {
     const { people, positionsOf, holders } = ix.crew(order.id);
-    const notClimbing = people.filter((w) => !positionsOf.get(w.id)!.has("climber"));
     if (isClimbingWork(order, holders.has("climber"))) {
-      if (!notClimbing.some((w) => ix.holdsOn(w, "pole_top_rescue", order.startDate))) {
+      const notClimbing = people.filter((w) => !positionsOf.get(w.id)!.has("climber"));
+      if (!notClimbing.some((w) => ix.holdsThrough(w, "pole_top_rescue", order))) {
         out.push(
           finding(
             "RESCUE",
             "block",
             order,
             null,
-            "Climbing work needs someone on site who is not climbing with valid pole-top rescue training; none assigned. " +
+            "Climbing work needs someone on site who is not climbing with pole-top rescue training valid on every day of the order; none assigned. " +
               "Add a worker on the ground trained in pole-top rescue.",
             RESCUE_SOURCE,
           ),
@@ -27,14 +30,17 @@ export const rescue: RuleCheck = (orders, ix) => {
       }
     }
     if (order.workType === "bucket") {
-      if (!notClimbing.some((w) => ix.holdsOn(w, "aerial_rescue", order.startDate))) {
+      const aloft = aloftIds(order, holders);
+      const aloftHolder = people.some((w) => aloft.has(w.id) && ix.holdsThrough(w, "aerial_rescue", order));
+      if (!people.some((w) => !aloft.has(w.id) && ix.holdsThrough(w, "aerial_rescue", order))) {
         out.push(
           finding(
             "RESCUE",
             "block",
             order,
             null,
-            "Bucket work needs someone on the ground with valid aerial-lift rescue training (lower controls); none assigned. " +
+            "Bucket work needs someone on the ground, not aloft, with aerial-lift rescue training (lower controls) valid on every day of the order; " +
+              (aloftHolder ? "the only trained worker is up in the bucket and cannot rescue themselves. " : "none assigned. ") +
               "Add a ground worker trained in aerial-lift rescue.",
             RESCUE_SOURCE,
           ),

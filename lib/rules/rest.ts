@@ -1,8 +1,10 @@
 // REST: worked time (time records plus every order the worker is on) separated by less than
 // the minimum rest joins into one stretch; a stretch containing an order must not exceed the
 // maximum shift. Elapsed epoch time throughout, so daylight-saving nights count real hours.
+// An order that lists `shifts` (a multi-day order, Corrections 6) is worked during those
+// shifts only, not over its whole span.
 
-import { finding, hours, who, type RuleCheck } from "./common";
+import { finding, hours, wallTimeWords, who, type RuleCheck } from "./common";
 import { upperBound, type SnapshotIndex } from "./snapshot-index";
 import { epochToZonedWallTime } from "./time";
 import type { Finding, Interval, Worker, WorkOrder } from "./types";
@@ -11,17 +13,23 @@ export const REST_SOURCE = 'common practice in utility labour agreements ("16 on
 
 const HOUR_MS = 3_600_000;
 
+/** The worked time of an order: its shifts when it lists any, otherwise its whole span. */
+export function workedIntervals(order: WorkOrder): readonly Interval[] {
+  return order.shifts && order.shifts.length > 0 ? order.shifts : [order];
+}
+
 /**
- * The stretch of worked time containing `order` for `worker`. Grows the order's interval by
+ * The stretch of worked time containing the interval `from` (an order's span or one of its
+ * shifts) for `worker`. Grows the order's interval by
  * absorbing every order or time-record stretch less than the minimum rest away, until nothing
  * more joins. Time records are pre-merged per worker, so each pass is a binary search.
  */
-export function stretchContaining(ix: SnapshotIndex, worker: Worker, order: WorkOrder): Interval {
+export function stretchContaining(ix: SnapshotIndex, worker: Worker, from: Interval): Interval {
   const gap = ix.policy.minRestHours * HOUR_MS;
-  const others = ix.ordersOf(worker.id);
+  const others = ix.ordersOf(worker.id).flatMap((o) => workedIntervals(o));
   const { starts, ends } = ix.recordStretches(worker);
-  let s = order.start;
-  let e = order.end;
+  let s = from.start;
+  let e = from.end;
   for (;;) {
     let ns = s;
     let ne = e;
@@ -47,11 +55,17 @@ export const rest: RuleCheck = (orders, ix) => {
   const out: Finding[] = [];
   const { minRestHours, maxShiftHours } = ix.policy;
   const tz = ix.timezone;
-  const local = (ms: number) => epochToZonedWallTime(ms, tz).replace("T", " ");
+  const local = (ms: number) => wallTimeWords(epochToZonedWallTime(ms, tz));
   for (const order of orders) {
+    const worked = workedIntervals(order);
     for (const w of ix.crew(order.id).people) {
-      const st = stretchContaining(ix, w, order);
-      if (st.end - st.start > maxShiftHours * HOUR_MS) {
+      // The longest stretch any of the order's worked intervals falls in.
+      let st: Interval | null = null;
+      for (const iv of worked) {
+        const s = stretchContaining(ix, w, iv);
+        if (!st || s.end - s.start > st.end - st.start) st = s;
+      }
+      if (st && st.end - st.start > maxShiftHours * HOUR_MS) {
         out.push(
           finding(
             "REST",

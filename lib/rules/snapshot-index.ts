@@ -3,7 +3,9 @@
 // construction (the board's drops), so per-worker caches (credentials, rest stretches) stay
 // valid and only the per-order crew cache is invalidated.
 
+import { epochToZonedDate } from "./time";
 import type { Assignment, DaySnapshot, Policy, Position, Worker, WorkOrder } from "./types";
+import { EquipmentIndex } from "./equipment-index";
 
 export interface Crew {
   order: WorkOrder;
@@ -40,6 +42,9 @@ export class SnapshotIndex {
   private readonly byWorker = new Map<string, Map<string, number>>();
   private readonly crews = new Map<string, Crew>();
   private readonly workerCache = new Map<string, WorkerCache>();
+  /** The day's equipment and equipment assignments (RULES-B: equipment, gear and field figures). */
+  readonly equipment: EquipmentIndex;
+  private readonly lastDays = new WeakMap<WorkOrder, string>();
 
   constructor(snapshot: DaySnapshot) {
     this.timezone = snapshot.timezone;
@@ -47,6 +52,7 @@ export class SnapshotIndex {
     for (const w of snapshot.workers) this.workers.set(w.id, w);
     for (const o of snapshot.workOrders) this.orders.set(o.id, o);
     this.orderIds = [...this.orders.keys()].sort((a, b) => (a < b ? -1 : a > b ? 1 : 0));
+    this.equipment = new EquipmentIndex(snapshot);
     for (const a of snapshot.assignments) {
       // The input parser rejects dangling references; the engine tolerates them by skipping.
       if (this.orders.has(a.workOrderId) && this.workers.has(a.workerId)) this.add(a);
@@ -151,6 +157,26 @@ export class SnapshotIndex {
   holdsOn(worker: Worker, type: string, date: string): boolean {
     const exp = this.expiryOf(worker, type);
     return exp === null || (exp !== undefined && exp >= date);
+  }
+
+  /**
+   * The order's last day in the snapshot's zone: the date of its last worked instant, so an
+   * order ending at midnight ends on the day before (Corrections 6: credentials must be valid
+   * on every day the order spans, its last day included).
+   */
+  lastDay(order: WorkOrder): string {
+    let d = this.lastDays.get(order);
+    if (d === undefined) {
+      d = order.end > order.start ? epochToZonedDate(order.end - 1, this.timezone) : order.startDate;
+      if (d < order.startDate) d = order.startDate;
+      this.lastDays.set(order, d);
+    }
+    return d;
+  }
+
+  /** Whether the worker holds the credential valid on every day of the order (first to last). */
+  holdsThrough(worker: Worker, type: string, order: WorkOrder): boolean {
+    return this.holdsOn(worker, type, order.startDate) && this.holdsOn(worker, type, this.lastDay(order));
   }
 
   /** The worker's time records merged with the policy's minimum rest, sorted and disjoint. */

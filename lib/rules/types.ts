@@ -5,7 +5,8 @@
 export const CLASSIFICATIONS = ["journeyman", "apprentice", "ground_hand", "operator", "crew_lead"] as const;
 export type Classification = (typeof CLASSIFICATIONS)[number];
 
-export const POSITIONS = ["climber", "observer", "operator", "ground", "lead", "driver"] as const;
+/** `aerial`: the worker aloft in the bucket (CREW-CHECK.md, Corrections 3). */
+export const POSITIONS = ["climber", "aerial", "observer", "operator", "ground", "lead", "driver"] as const;
 export type Position = (typeof POSITIONS)[number];
 
 export const WORK_TYPES = ["pole_climb", "bucket", "digger_derrick", "patrol", "storm", "other"] as const;
@@ -26,6 +27,7 @@ export const RULE_CODES = [
   "IN_CHARGE",
   "DOUBLE_BOOKED",
   "UNAVAILABLE",
+  "LOCATE",
 ] as const;
 export type RuleCode = (typeof RULE_CODES)[number];
 
@@ -36,6 +38,7 @@ export const RULE_CREDENTIALS = [
   "climbing",
   "first_aid_cpr",
   "pole_top_rescue",
+  "qualified_electrical",
   "aerial_rescue",
   "equipment_operator",
   "cdl_a",
@@ -94,6 +97,22 @@ export interface WorkOrder {
   minCrew: number | null;
   /** Licence class a driver position needs (cdl_a also satisfies cdl_b). Default cdl_b. */
   driverLicence?: "cdl_a" | "cdl_b";
+  /**
+   * Highest voltage (kV) of exposed energized parts within reach of the work or of its
+   * mechanical equipment when the work itself is de-energized; null/absent = none stated.
+   */
+  nearEnergizedKv?: number | null;
+  /** Worked shifts inside a multi-day order (epoch ms): REST counts these instead of the whole span. */
+  shifts?: Interval[];
+  /** The order disturbs the ground (pole sets, anchors): it needs a locate ticket. */
+  digs?: boolean;
+  /** The order's one-call locate ticket; validThrough is its last valid day (YYYY-MM-DD). */
+  locate?: LocateTicket | null;
+}
+
+export interface LocateTicket {
+  ticket: string;
+  validThrough: string;
 }
 
 export interface Assignment {

@@ -1,6 +1,6 @@
 // UNAVAILABLE: leave, training or sickness covering any part of the order (half-open intervals).
 
-import { finding, who, type RuleCheck } from "./common";
+import { finding, wallTimeWords, who, type RuleCheck } from "./common";
 import { epochToZonedWallTime } from "./time";
 import type { Finding } from "./types";
 
@@ -8,7 +8,7 @@ export const UNAVAILABLE_SOURCE = "availability record (no regulation)";
 
 export const unavailable: RuleCheck = (orders, ix) => {
   const out: Finding[] = [];
-  const local = (ms: number) => epochToZonedWallTime(ms, ix.timezone).replace("T", " ");
+  const local = (ms: number) => wallTimeWords(epochToZonedWallTime(ms, ix.timezone));
   for (const order of orders) {
     for (const w of ix.crew(order.id).people) {
       const hits = w.unavailable
