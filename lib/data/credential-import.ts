@@ -17,10 +17,19 @@ export interface ImportResult {
   created: number;
   /** Existing current records that the import supersedes. */
   superseded: number;
+  /** Rows that say what is already stored (an unchanged export row): nothing is written for them. */
+  unchanged: number;
   importRef: string | null;
 }
 
 const MAX_ISSUES = 500;
+
+/** DATE columns come back as YYYY-MM-DD strings (dateStrings); a Date is read in UTC to be safe. */
+function dateStr(v: unknown): string | null {
+  if (v === null || v === undefined) return null;
+  if (v instanceof Date) return v.toISOString().slice(0, 10);
+  return String(v).slice(0, 10);
+}
 
 /** One query each for workers, types and current records, whatever the number of rows. */
 async function lookups(q: Knex | Knex.Transaction, organisationId: number, rows: ImportRow[], now: Date, lock: boolean): Promise<ImportLookups> {
@@ -34,9 +43,23 @@ async function lookups(q: Knex | Knex.Transaction, organisationId: number, rows:
     : [];
   const typeRows = await q("qualification_types").where({ organisation_id: organisationId }).select("id", "code", "name", "renewal_months");
   const ids = workerRows.map((w) => w.id);
-  const curQ = q("credentials").whereIn("worker_id", ids.length ? ids : [0]).where("status", "current").select("id", "worker_id", "qualification_type_id", "issued_on");
+  const curQ = q("credentials")
+    .whereIn("worker_id", ids.length ? ids : [0])
+    .where("status", "current")
+    .select("id", "worker_id", "qualification_type_id", "issued_on", "expires_on");
   if (lock) curQ.forUpdate();
   const cur = await curQ;
+  const otherRows = await q("credentials")
+    .whereIn("worker_id", ids.length ? ids : [0])
+    .whereNot("status", "current")
+    .select("worker_id", "qualification_type_id", "issued_on", "expires_on", "status");
+  const others = new Map<string, { issuedOn: string; expiresOn: string | null; status: string }[]>();
+  for (const o of otherRows) {
+    const k = `${o.worker_id}:${o.qualification_type_id}`;
+    const list = others.get(k) ?? [];
+    list.push({ issuedOn: dateStr(o.issued_on)!, expiresOn: dateStr(o.expires_on), status: String(o.status) });
+    others.set(k, list);
+  }
   const cache = new Map<string, string>();
   return {
     workers: new Map(workerRows.map((w) => [String(w.employee_no).toLowerCase(), { id: Number(w.id), timezone: String(w.timezone) }])),
@@ -46,7 +69,10 @@ async function lookups(q: Knex | Knex.Transaction, organisationId: number, rows:
         { id: Number(t.id), code: t.code, name: t.name, renewalMonths: t.renewal_months === null ? null : Number(t.renewal_months) },
       ]),
     ),
-    current: new Map(cur.map((c) => [`${c.worker_id}:${c.qualification_type_id}`, { id: Number(c.id), issuedOn: c.issued_on }])),
+    current: new Map(
+      cur.map((c) => [`${c.worker_id}:${c.qualification_type_id}`, { id: Number(c.id), issuedOn: dateStr(c.issued_on)!, expiresOn: dateStr(c.expires_on) }]),
+    ),
+    others,
     today: (tz) => {
       let t = cache.get(tz);
       if (!t) cache.set(tz, (t = todayIn(tz, now)));
@@ -76,18 +102,29 @@ export async function importCredentials(
     issueCount: issues.length,
     created: 0,
     superseded: 0,
+    unchanged: 0,
   });
   if (parsed.issues.length) return fail(parsed.issues);
 
   if (opts.dryRun) {
-    const { issues, plan } = planImport(parsed.rows, await lookups(db, actor.organisationId, parsed.rows, now, false));
+    const { issues, plan, unchanged } = planImport(parsed.rows, await lookups(db, actor.organisationId, parsed.rows, now, false));
     if (issues.length) return fail(issues);
-    return { ...base, ok: true, issues: [], issueCount: 0, created: plan.length, superseded: plan.filter((p) => p.supersedes && "currentId" in p.supersedes).length };
+    return {
+      ...base,
+      ok: true,
+      issues: [],
+      issueCount: 0,
+      created: plan.length,
+      superseded: plan.filter((p) => p.supersedes && "currentId" in p.supersedes).length,
+      unchanged: unchanged.length,
+    };
   }
 
   return db.transaction(async (trx) => {
-    const { issues, plan } = planImport(parsed.rows, await lookups(trx, actor.organisationId, parsed.rows, now, true));
+    const { issues, plan, unchanged } = planImport(parsed.rows, await lookups(trx, actor.organisationId, parsed.rows, now, true));
     if (issues.length) return fail(issues);
+    // Nothing differs from what is stored: a no-op, nothing written.
+    if (!plan.length) return { ...base, ok: true, issues: [], issueCount: 0, created: 0, superseded: 0, unchanged: unchanged.length };
     const importRef = `imp-${randomUUID()}`;
     const supersededIds = plan.flatMap((p) => (p.supersedes && "currentId" in p.supersedes ? [p.supersedes.currentId] : []));
     for (let i = 0; i < supersededIds.length; i += 1000) {
@@ -126,9 +163,10 @@ export async function importCredentials(
       importRef,
       rows: rows.length,
       superseded: supersededIds.length,
+      unchanged: unchanged.length,
       workers: new Set(plan.map((p) => p.workerId)).size,
     });
     await boardEvent(trx, { organisationId: actor.organisationId, kind: "credential", day: null, payload: { importRef } });
-    return { ...base, ok: true, issues: [], issueCount: 0, created: rows.length, superseded: supersededIds.length, importRef };
+    return { ...base, ok: true, issues: [], issueCount: 0, created: rows.length, superseded: supersededIds.length, unchanged: unchanged.length, importRef };
   });
 }

@@ -26,6 +26,60 @@ export interface ParsedCsv {
   ignoredColumns: string[];
 }
 
+/** The export's columns: the import's four first, so an edited export imports again. */
+export const EXPORT_COLUMNS = [
+  ...IMPORT_COLUMNS,
+  "worker",
+  "yard",
+  "qualification_name",
+  "status",
+  "days_left",
+  "evidence",
+  "verified_by",
+  "verified_at",
+] as const;
+
+export interface ExportRow {
+  employeeNo: string;
+  type: string;
+  issuedOn: string;
+  expiresOn: string | null;
+  workerName: string;
+  yardCode: string;
+  typeName: string;
+  status: string;
+  daysLeft: number | null;
+  evidenceName: string | null;
+  verifiedByName: string | null;
+  verifiedAt: string | null;
+}
+
+/** The desk's table as CSV text (BOM, CRLF), shared by the export route and the round-trip tests. */
+export function credentialExportCsv(rows: ExportRow[]): string {
+  const csv = Papa.unparse(
+    {
+      fields: [...EXPORT_COLUMNS],
+      data: rows.map((r) => [
+        r.employeeNo,
+        r.type,
+        r.issuedOn,
+        r.expiresOn ?? "",
+        r.workerName,
+        r.yardCode,
+        r.typeName,
+        r.status,
+        r.daysLeft ?? "",
+        r.evidenceName ?? "",
+        r.verifiedByName ?? "",
+        r.verifiedAt ?? "",
+      ]),
+    },
+    // Cells starting with = + - @ are prefixed so a spreadsheet does not run them (CSV injection).
+    { escapeFormulae: true, newline: "\r\n" },
+  );
+  return "\uFEFF" + csv + "\r\n";
+}
+
 const norm = (h: string) => h.replace(/^\uFEFF/, "").trim().toLowerCase().replace(/[\s-]+/g, "_");
 
 /** Parses the file's text. Line numbers are the file's own (header = line 1), multi-line cells included. */
@@ -95,8 +149,13 @@ export interface ImportLookups {
   workers: Map<string, { id: number; timezone: string }>;
   /** code (lower case) → type */
   types: Map<string, { id: number; code: string; name: string; renewalMonths: number | null }>;
-  /** `${workerId}:${typeId}` → the current record */
-  current: Map<string, { id: number; issuedOn: string }>;
+  /** `${workerId}:${typeId}` → the current record (expiresOn: null = no expiry; absent = not looked up) */
+  current: Map<string, { id: number; issuedOn: string; expiresOn?: string | null }>;
+  /**
+   * `${workerId}:${typeId}` → the worker's other records of that qualification (pending,
+   * superseded, rejected), so that a row the export wrote from them reads as unchanged.
+   */
+  others?: Map<string, { issuedOn: string; expiresOn: string | null; status: string }[]>;
   today: (timezone: string) => string;
 }
 
@@ -110,12 +169,16 @@ export interface PlannedRow {
   isLatest: boolean;
   /** The record it replaces: the existing current one for the first of a chain, else the previous file row. */
   supersedes: { currentId: number } | { line: number } | null;
+  /** Same issue date as the current record, another expiry: a correction that replaces it. */
+  correction?: boolean;
 }
 
 /** Checks every row against the lookups; returns all issues (line + field) and, when none, the plan. */
-export function planImport(rows: ImportRow[], lk: ImportLookups): { issues: ImportIssue[]; plan: PlannedRow[] } {
+export function planImport(rows: ImportRow[], lk: ImportLookups): { issues: ImportIssue[]; plan: PlannedRow[]; unchanged: number[] } {
   const issues: ImportIssue[] = [];
   const ok: PlannedRow[] = [];
+  /** Lines that say what is already stored: no-ops, so an export imports back unchanged. */
+  const unchanged: number[] = [];
   for (const row of rows) {
     const parsed = importRowSchema.safeParse(row);
     if (!parsed.success) {
@@ -147,14 +210,45 @@ export function planImport(rows: ImportRow[], lk: ImportLookups): { issues: Impo
       bad = true;
     }
     if (bad || !worker || !type) continue;
+    const expiresOn = r.expires_on ?? proposeExpiry(r.issued_on, type.renewalMonths);
+    const key = `${worker.id}:${type.id}`;
+    const cur = lk.current.get(key);
+    // An empty expiry matches a record without one, or the expiry the import would propose.
+    const sameExpiry = (stored: string | null) => (r.expires_on ? r.expires_on === stored : stored === null || stored === expiresOn);
+    let correction = false;
+    if (cur && cur.issuedOn === r.issued_on) {
+      if (cur.expiresOn === undefined || sameExpiry(cur.expiresOn)) {
+        unchanged.push(row.line);
+        continue;
+      }
+      correction = true;
+    } else {
+      const other = lk.others?.get(key)?.find((o) => o.issuedOn === r.issued_on);
+      if (other) {
+        if (sameExpiry(other.expiresOn)) {
+          unchanged.push(row.line);
+          continue;
+        }
+        issues.push({
+          line: row.line,
+          field: "expires_on",
+          message:
+            other.status === "pending"
+              ? `differs from the record issued ${r.issued_on} that awaits verification; verify or reject it on the desk first`
+              : `differs from the older record issued ${r.issued_on}; older history is not changed by an import`,
+        });
+        continue;
+      }
+    }
     ok.push({
       line: row.line,
       workerId: worker.id,
       typeId: type.id,
       issuedOn: r.issued_on,
-      expiresOn: r.expires_on ?? proposeExpiry(r.issued_on, type.renewalMonths),
+      expiresOn,
       isLatest: false,
       supersedes: null,
+      ...(correction ? { correction: true } : {}),
     });
   }
   // Chains per worker and qualification, oldest first.
@@ -175,7 +269,7 @@ export function planImport(rows: ImportRow[], lk: ImportLookups): { issues: Impo
         const later = Math.max(p.line, g[i - 1].line);
         issues.push({ line: later, field: "issued_on", message: `same worker, qualification and issue date as line ${first}` });
       }
-      if (cur && p.issuedOn <= cur.issuedOn) {
+      if (cur && (p.issuedOn < cur.issuedOn || (p.issuedOn === cur.issuedOn && !p.correction))) {
         issues.push({
           line: p.line,
           field: "issued_on",
@@ -187,5 +281,5 @@ export function planImport(rows: ImportRow[], lk: ImportLookups): { issues: Impo
     }
   }
   issues.sort((a, b) => a.line - b.line || a.field.localeCompare(b.field));
-  return { issues, plan: issues.length ? [] : ok };
+  return { issues, plan: issues.length ? [] : ok, unchanged };
 }

@@ -109,12 +109,58 @@ describe("import", () => {
     expect(await db("board_events").where({ kind: "credential" }).whereRaw("JSON_EXTRACT(payload, '$.importRef') = ?", [r.body.importRef]).first()).toBeTruthy();
   });
 
-  it("importing the same file again is refused row by row (not newer than the current record)", async () => {
-    const csv = [header, `${nos[0]},${codes[0]},${addDaysIso(today, -10)},`].join("\n");
-    // Worker 0, code 0 was issued today − 10 above.
-    const r = await hr.json("/api/credentials/import", "POST", { csv, dryRun: true });
-    expect(r.status).toBe(422);
-    expect(r.body.issues[0]).toMatchObject({ line: 2, field: "issued_on" });
+  it("importing the same row again is a no-op (it says what is stored); an older one is refused", async () => {
+    // Worker 0, code 0 was issued today − 10 above, expiry proposed from the empty cell.
+    const before = await count();
+    const same = [header, `${nos[0]},${codes[0]},${addDaysIso(today, -10)},`].join("\n");
+    const r = await hr.json("/api/credentials/import", "POST", { csv: same, dryRun: false });
+    expect(r.status).toBe(201);
+    expect(r.body).toMatchObject({ created: 0, superseded: 0, unchanged: 1, importRef: null });
+    expect(await count()).toBe(before);
+    const older = [header, `${nos[0]},${codes[0]},${addDaysIso(today, -400)},`].join("\n");
+    const o = await hr.json("/api/credentials/import", "POST", { csv: older, dryRun: true });
+    expect(o.status).toBe(422);
+    expect(o.body.issues[0]).toMatchObject({ line: 2, field: "issued_on" });
+  });
+
+  it("the demo's whole export imports back as a no-op; edited rows, and only those, change (issue 18)", async () => {
+    const exp = await hr.fetch("/api/credentials/export");
+    expect(exp.status).toBe(200);
+    const text = await exp.text();
+    const before = await count();
+    const again = await hr.json("/api/credentials/import", "POST", { csv: text, dryRun: false });
+    expect(again.status, JSON.stringify(again.body.issues?.slice(0, 3))).toBe(201);
+    expect(again.body).toMatchObject({ created: 0, superseded: 0, importRef: null });
+    expect(again.body.unchanged).toBe(again.body.rows);
+    expect(await count()).toBe(before);
+
+    // Edit two of this test's own workers' rows (the demo's records stay as they are): a corrected
+    // expiry on worker 2's current record, a renewal of worker 3's. RFC 4180 via papaparse.
+    const parsed = Papa.parse<string[]>(text.replace(/^\uFEFF/, ""), { skipEmptyLines: true });
+    const [head, ...body] = parsed.data;
+    const i2 = body.findIndex((r) => r[0] === nos[2]);
+    const i3 = body.findIndex((r) => r[0] === nos[3]);
+    expect(i2).toBeGreaterThanOrEqual(0);
+    expect(i3).toBeGreaterThanOrEqual(0);
+    const old2 = { issued: body[i2][2], code: body[i2][1] };
+    body[i2][3] = addDaysIso(today, 700);
+    body[i3][2] = addDaysIso(today, -2);
+    body[i3][3] = "";
+    const edited = Papa.unparse([head, ...body], { newline: "\r\n" });
+    const dry = await hr.json("/api/credentials/import", "POST", { csv: edited, dryRun: true });
+    expect(dry.status).toBe(200);
+    expect(dry.body).toMatchObject({ created: 2, superseded: 2, unchanged: body.length - 2 });
+    const done = await hr.json("/api/credentials/import", "POST", { csv: edited, dryRun: false });
+    expect(done.status).toBe(201);
+    expect(done.body).toMatchObject({ created: 2, superseded: 2 });
+    expect(await count()).toBe(before + 2);
+    const w2 = await db("workers").where({ employee_no: nos[2] }).first("id");
+    const t2 = await db("qualification_types").where({ organisation_id: 1, code: old2.code }).first("id");
+    const now2 = await db("credentials").where({ worker_id: w2.id, qualification_type_id: t2.id, status: "current" }).first();
+    expect(now2).toMatchObject({ issued_on: old2.issued, expires_on: addDaysIso(today, 700) });
+    // And the edited file, imported once more, is now a no-op too.
+    const third = await hr.json("/api/credentials/import", "POST", { csv: edited, dryRun: false });
+    expect(third.body).toMatchObject({ created: 0, superseded: 0 });
   });
 
   it("a newer row renews: the old record becomes superseded and the new one points at it", async () => {

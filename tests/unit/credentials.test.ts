@@ -76,7 +76,7 @@ describe("planImport", () => {
       ["climbing", { id: 10, code: "climbing", name: "Climbing evaluation", renewalMonths: 12 }],
       ["cdl_a", { id: 11, code: "cdl_a", name: "CDL class A", renewalMonths: 48 }],
     ]),
-    current: new Map([["1:10", { id: 500, issuedOn: "2025-06-01" }]]),
+    current: new Map([["1:10", { id: 500, issuedOn: "2025-06-01", expiresOn: "2026-05-31" }]]),
     today: () => "2026-12-01",
   };
   const rows = (text: string) => parseCredentialCsv("employee_no,qualification,issued_on,expires_on\n" + text).rows;
@@ -112,8 +112,8 @@ describe("planImport", () => {
     expect(byLine.get(2)).toMatchObject({ isLatest: true, supersedes: { line: 4 } });
   });
 
-  it("rows not newer than the current record, and duplicates, are refused", () => {
-    const { issues } = planImport(rows("CP-1,climbing,2025-06-01,\nCP-2,cdl_a,2026-01-10,\nCP-2,cdl_a,2026-01-10,\n"), lk);
+  it("rows older than the current record (and not on record), and duplicates, are refused", () => {
+    const { issues } = planImport(rows("CP-1,climbing,2025-01-01,\nCP-2,cdl_a,2026-01-10,\nCP-2,cdl_a,2026-01-10,\n"), lk);
     expect(issues.map(formatIssue)).toEqual([
       "line 2, issued_on: not after the worker's current record (issued 2025-06-01); older history is not imported",
       "line 4, issued_on: same worker, qualification and issue date as line 3",

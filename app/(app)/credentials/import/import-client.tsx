@@ -14,6 +14,8 @@ interface Result {
   issueCount: number;
   created: number;
   superseded: number;
+  /** Rows identical to what is stored (an unchanged export row). */
+  unchanged?: number;
   ignoredColumns: string[];
   error?: string;
 }
@@ -194,13 +196,16 @@ export function ImportClient({ codes }: { codes: { code: string; name: string; r
           )}
           {result?.ok && phase === "checked" && (
             <p role="status" className="mt-3 rounded-md bg-clear-bg px-3 py-2 text-sm font-semibold text-clear">
-              ✓ All {result.rows} rows are good: {result.created} records to write
-              {result.superseded ? `, renewing ${result.superseded} current record${result.superseded === 1 ? "" : "s"}` : ""}. Nothing is written until you import.
+              ✓ All {result.rows} rows are good: {result.created} record{result.created === 1 ? "" : "s"} to write
+              {result.superseded ? `, replacing ${result.superseded} current record${result.superseded === 1 ? "" : "s"}` : ""}
+              {result.unchanged ? `; ${result.unchanged} row${result.unchanged === 1 ? "" : "s"} already match what is stored and stay as they are` : ""}. Nothing is written until you import.
             </p>
           )}
           {result?.ok && phase === "imported" && (
             <p role="status" className="mt-3 rounded-md bg-clear-bg px-3 py-2 text-sm font-semibold text-clear">
-              ✓ Imported {result.created} records{result.superseded ? `; ${result.superseded} older records kept as history` : ""}.{" "}
+              ✓ Imported {result.created} record{result.created === 1 ? "" : "s"}
+              {result.superseded ? `; ${result.superseded} older record${result.superseded === 1 ? "" : "s"} kept as history` : ""}
+              {result.unchanged ? `; ${result.unchanged} unchanged row${result.unchanged === 1 ? "" : "s"} left as they were` : ""}.{" "}
               <Link href="/credentials" className="underline">
                 Open the credentials
               </Link>

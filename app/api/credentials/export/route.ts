@@ -1,10 +1,10 @@
-import Papa from "papaparse";
 import { db } from "@/lib/db";
 import { handler, readQuery } from "@/lib/api/http";
 import { requireRole } from "@/lib/auth/session";
 import { listCredentials } from "@/lib/data/credentials";
 import { todayIn } from "@/lib/data/yards";
 import { credentialQuerySchema } from "@/lib/validation/credential";
+import { credentialExportCsv } from "@/lib/validation/credential-csv";
 
 // GET: hr, admin, supervisor. The desk's table as CSV, with the same filters as the list.
 // The first four columns are the import's, so an edited export can be imported again.
@@ -12,43 +12,10 @@ export const GET = handler(async (req) => {
   const user = await requireRole("hr", "admin", "supervisor");
   const f = readQuery(req, credentialQuerySchema);
   const rows = await listCredentials(db(), user.organisationId, f);
-  const csv = Papa.unparse(
-    {
-      fields: [
-        "employee_no",
-        "qualification",
-        "issued_on",
-        "expires_on",
-        "worker",
-        "yard",
-        "qualification_name",
-        "status",
-        "days_left",
-        "evidence",
-        "verified_by",
-        "verified_at",
-      ],
-      data: rows.map((r) => [
-        r.employeeNo,
-        r.type,
-        r.issuedOn,
-        r.expiresOn ?? "",
-        r.workerName,
-        r.yardCode,
-        r.typeName,
-        r.status,
-        r.daysLeft ?? "",
-        r.evidenceName ?? "",
-        r.verifiedByName ?? "",
-        r.verifiedAt ?? "",
-      ]),
-    },
-    // Cells starting with = + - @ are prefixed so a spreadsheet does not run them (CSV injection).
-    { escapeFormulae: true, newline: "\r\n" },
-  );
+  const csv = credentialExportCsv(rows);
   const day = todayIn("UTC");
   const view = f.view && f.view !== "all" ? `-${f.view}` : "";
-  return new Response("\uFEFF" + csv + "\r\n", {
+  return new Response(csv, {
     headers: {
       "content-type": "text/csv; charset=utf-8",
       "content-disposition": `attachment; filename="credentials-${day}${view}.csv"`,
