@@ -37,6 +37,12 @@ export interface OrderCard {
   end: string;
   energized: boolean;
   voltageKv: number | null;
+  /** Issue 14: 1 for a single-phase tap (voltageKv to ground), its system voltage, and live parts nearby. */
+  phases?: number;
+  systemKv?: number | null;
+  nearEnergizedKv?: number | null;
+  /** A multi-day order's worked shifts (ISO instants). */
+  shifts?: { start: string; end: string }[];
   emergency: boolean;
   crewException: string | null;
   minCrew: number | null;

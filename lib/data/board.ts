@@ -368,6 +368,7 @@ export async function loadBoard(
   });
 
   const boardOrderIds = orderIds.map(String);
+  const ruleShifts = new Map(snapshot.workOrders.map((w) => [Number(w.id), w.shifts ?? []]));
   const findings = findingsForOrders(snapshot, boardOrderIds);
 
   const byPosition = new Map(assignments.map((a) => [a.position_id, a]));
@@ -421,6 +422,10 @@ export async function loadBoard(
       end: new Date(o.end_at).toISOString(),
       energized: Boolean(o.energized),
       voltageKv: o.voltage_kv === null ? null : Number(o.voltage_kv),
+      phases: o.phases === 1 ? 1 : 3,
+      systemKv: kv(o.system_kv),
+      nearEnergizedKv: kv(o.near_energized_kv),
+      shifts: (ruleShifts.get(o.id) ?? []).map((s) => ({ start: new Date(s.start).toISOString(), end: new Date(s.end).toISOString() })),
       emergency: Boolean(o.emergency),
       crewException: o.crew_exception,
       minCrew: o.min_crew,
@@ -436,6 +441,7 @@ export async function loadBoard(
         locateTicket: o.locate_ticket,
         locateValidThrough: o.locate_valid_through,
         workDate: day,
+        lastDate: epochToZonedDate(ms(o.end_at) - 1, o.timezone),
       }),
       version: o.version,
       crewHash: crewHash(seats.filter((s) => s.assignment).map((s) => ({ positionId: s.id, workerId: s.assignment!.workerId }))),

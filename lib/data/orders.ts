@@ -122,6 +122,7 @@ function toListItem(r: Record<string, any>): OrderListItem {
     startLocal: epochToZonedWallTime(start, tz),
     endLocal: epochToZonedWallTime(end, tz),
     workDate: String(r.work_date),
+    lastDate: epochToZonedDate(end - 1, tz),
     status: r.status as OrderStatus,
     holdReason: r.hold_reason ?? null,
     priority: Number(r.priority),

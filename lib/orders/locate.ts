@@ -8,6 +8,8 @@ export interface LocateInput {
   locateValidThrough: string | null;
   /** The order's start date (YYYY-MM-DD, yard-local). */
   workDate: string;
+  /** The order's last day (YYYY-MM-DD, yard-local) when it runs past its first: the ticket must cover it too. */
+  lastDate?: string | null;
 }
 
 function day(date: string) {
@@ -28,6 +30,9 @@ export function locateWarning(order: LocateInput): string | null {
   if (!order.locateValidThrough) return `Locate ticket ${ticket} has no valid-through date: check it covers ${day(order.workDate)}.`;
   if (order.locateValidThrough < order.workDate)
     return `Locate ticket ${ticket} is valid only through ${day(order.locateValidThrough)}, before the work day ${day(order.workDate)}: ask for a re-mark before digging.`;
+  // A multi-day order digs on its last day too (CREW-CHECK.md, Corrections 7: valid through the last day).
+  if (order.lastDate && order.lastDate > order.workDate && order.locateValidThrough < order.lastDate)
+    return `Locate ticket ${ticket} is valid only through ${day(order.locateValidThrough)}, before the order's last day ${day(order.lastDate)}: ask for a re-mark or an extension before then.`;
   return null;
 }
 

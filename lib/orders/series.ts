@@ -77,6 +77,9 @@ function templateFrom(input: OrderInput | SeriesEditInput): SeriesTemplate {
     driverLicence: input.driverLicence,
     locateTicket: input.locateTicket,
     locateValidThrough: input.locateValidThrough,
+    nearEnergizedKv: input.nearEnergizedKv ?? null,
+    phases: input.phases ?? 3,
+    systemKv: input.systemKv ?? null,
     positions: input.positions.map((p) => p.position),
   };
 }

@@ -39,6 +39,8 @@ export interface OrderListItem {
   startLocal: string; // YYYY-MM-DDTHH:mm in the yard's zone
   endLocal: string;
   workDate: string;
+  /** The order's last day in the yard's zone (its work date unless it runs past midnight). */
+  lastDate: string;
   status: OrderStatus;
   holdReason: string | null;
   priority: number;

@@ -7,6 +7,7 @@ import { findingKey } from "@/lib/board/types";
 import type { Finding } from "@/lib/rules/types";
 import { Badge, StateIcon } from "@/components/status";
 import { CLASSIFICATION_LABEL, fmtTime, POSITION_LABEL } from "@/lib/format";
+import { energyLabel } from "@/lib/orders/voltage";
 import { seatId } from "./dnd";
 import { FindingRow } from "./findings";
 
@@ -189,7 +190,8 @@ export const OrderCardView = memo(function OrderCardView({
           </h3>
           <p className="truncate text-xs text-ink-500">
             {card.workTypeName}
-            {card.energized ? ` · energized ${card.voltageKv ?? "?"} kV` : " · de-energized"}
+            {` · ${energyLabel(card)}`}
+            {card.shifts && card.shifts.length > 1 ? ` · ${card.shifts.length} shifts` : ""}
             {card.emergency ? " · emergency" : ""}
             {card.address ? ` · ${card.address}` : ""}
             {card.structureNo ? ` · pole ${card.structureNo}` : ""}

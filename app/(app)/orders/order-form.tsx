@@ -3,10 +3,11 @@
 import { zodResolver } from "@hookform/resolvers/zod";
 import { useRouter } from "next/navigation";
 import { useEffect, useMemo, useState } from "react";
-import { useForm } from "react-hook-form";
+import { useFieldArray, useForm } from "react-hook-form";
 import { FieldError, FormAlert, applyIssues, sendJson } from "@/components/form-bits";
 import { POSITION_LABEL } from "@/lib/format";
 import { locateWarning } from "@/lib/orders/locate";
+import { voltageLabel } from "@/lib/orders/voltage";
 import { CREW_EXCEPTION_LABEL, LICENCE_LABEL, ORDER_STATUSES, PRIORITY_LABEL, STATUS_LABEL } from "@/lib/orders/status";
 import type { OrderSeat, WorkTypeView } from "@/lib/orders/types";
 import { buildRrule, defaultRepeatForm, floating, type RepeatForm } from "@/lib/recurrence-core";
@@ -51,6 +52,27 @@ interface Row {
 const SCHEMA = { new: orderInputSchema, edit: orderEditSchema, series: seriesEditSchema };
 const nullableNumber = (v: unknown) => (v === "" || v === null || v === undefined ? null : Number(v));
 
+/** "YYYY-MM-DDTHH:mm" moved by whole calendar days (wall clock, no zone). */
+function plusDays(wall: string, days: number) {
+  const [y, m, d] = wall.slice(0, 10).split("-").map(Number);
+  const t = new Date(Date.UTC(y, m - 1, d + days));
+  return `${t.toISOString().slice(0, 10)}${wall.slice(10, 16)}`;
+}
+
+/** One shift a day from the order's first day to its last, each at the order's start and end clock times. */
+export function dailyShifts(start: string, end: string): { start: string; end: string }[] {
+  if (start.length < 16 || end.length < 16 || end <= start) return [];
+  const out: { start: string; end: string }[] = [];
+  const from = start.slice(11, 16);
+  const to = end.slice(11, 16);
+  for (let day = start.slice(0, 10), i = 0; day <= end.slice(0, 10) && i < 31; day = plusDays(`${day}T00:00`, 1).slice(0, 10), i++) {
+    const s = `${day}T${from}`;
+    const e = to > from ? `${day}T${to}` : plusDays(`${day}T${to}`, 1);
+    if (s >= start.slice(0, 16) && e <= end.slice(0, 16)) out.push({ start: s, end: e });
+  }
+  return out;
+}
+
 /**
  * One form for a new order, an existing order and a repeating order's series, validated by
  * the same zod schema as its route (orderInputSchema, orderEditSchema, seriesEditSchema).
@@ -71,6 +93,7 @@ export function OrderForm({ mode, yards, workTypes, initial, seats = [], orderId
   });
   const { register, watch, setValue, formState } = form;
   const errors = formState.errors;
+  const shiftRows = useFieldArray({ control: form.control, name: "shifts" as never });
 
   const yardId = Number(watch("yardId"));
   const workTypeId = Number(watch("workTypeId"));
@@ -108,12 +131,18 @@ export function OrderForm({ mode, yards, workTypes, initial, seats = [], orderId
     }
   }, [start, end]);
 
+  const phases = Number(watch("phases") ?? 3);
+  const tapLabel = voltageLabel({ voltageKv: watch("voltageKv") ?? null, phases, systemKv: watch("systemKv") ?? null });
+  const multiDay = start.length >= 10 && end.length >= 10 && end.slice(0, 10) > start.slice(0, 10);
+  const shiftList = (watch("shifts") ?? []) as { start: string; end: string }[];
+
   const locate = type
     ? locateWarning({
         digs: type.digs,
         locateTicket: watch("locateTicket") ?? null,
         locateValidThrough: watch("locateValidThrough") || null,
         workDate: start.slice(0, 10),
+        lastDate: end.slice(11, 16) === "00:00" ? null : end.slice(0, 10),
       })
     : null;
 
@@ -347,6 +376,57 @@ export function OrderForm({ mode, yards, workTypes, initial, seats = [], orderId
               error={err("recurrence.rrule") ?? err("recurrence")}
             />
           )}
+          {mode !== "series" && (multiDay || shiftList.length > 0) && (
+            <div className="space-y-2 rounded-md border border-rule bg-white p-3" data-testid="order-shifts">
+              <p className="text-sm font-bold">Shifts</p>
+              <p className="text-xs text-ink-500">
+                A multi-day order lists the hours the crew actually works, inside the order and not overlapping. The rest rule counts these
+                shifts, not the whole span; credentials must be valid on every day.
+              </p>
+              <ul className="space-y-1.5" aria-label="Shifts">
+                {shiftRows.fields.map((f, i) => (
+                  <li key={f.id} className="grid grid-cols-[1fr_1fr_auto] items-start gap-2">
+                    <div>
+                      <label className="sr-only" htmlFor={`shifts.${i}.start`}>
+                        Shift {i + 1} start
+                      </label>
+                      <input id={`shifts.${i}.start`} type="datetime-local" className="field" {...register(`shifts.${i}.start` as never)} {...aria(`shifts.${i}.start`)} />
+                      <FieldError id={`shifts.${i}.start-error`} msg={err(`shifts.${i}.start`)} />
+                    </div>
+                    <div>
+                      <label className="sr-only" htmlFor={`shifts.${i}.end`}>
+                        Shift {i + 1} end
+                      </label>
+                      <input id={`shifts.${i}.end`} type="datetime-local" className="field" {...register(`shifts.${i}.end` as never)} {...aria(`shifts.${i}.end`)} />
+                      <FieldError id={`shifts.${i}.end-error`} msg={err(`shifts.${i}.end`)} />
+                    </div>
+                    <button type="button" className="btn-quiet px-2" aria-label={`Remove shift ${i + 1}`} onClick={() => shiftRows.remove(i)}>
+                      ✕
+                    </button>
+                  </li>
+                ))}
+              </ul>
+              <div className="flex flex-wrap items-center gap-2">
+                <button
+                  type="button"
+                  className="btn-quiet"
+                  onClick={() => {
+                    const last = shiftList[shiftList.length - 1];
+                    const next = last ? { start: plusDays(last.start, 1), end: plusDays(last.end, 1) } : dailyShifts(start, end)[0] ?? { start, end };
+                    shiftRows.append(next as never);
+                  }}
+                >
+                  Add shift
+                </button>
+                {shiftList.length === 0 && (
+                  <button type="button" className="text-xs font-semibold text-copper hover:underline" onClick={() => shiftRows.replace(dailyShifts(start, end) as never)}>
+                    One shift a day at the order&apos;s hours
+                  </button>
+                )}
+              </div>
+              <FieldError msg={err("shifts")} />
+            </div>
+          )}
         </section>
 
         <section className="card space-y-3 p-4">
@@ -366,6 +446,50 @@ export function OrderForm({ mode, yards, workTypes, initial, seats = [], orderId
               </label>
               <input id="voltageKv" type="number" step="0.001" min={0} className="field" {...register("voltageKv", { setValueAs: nullableNumber })} {...aria("voltageKv")} />
               <FieldError id="voltageKv-error" msg={err("voltageKv")} />
+            </div>
+            <div>
+              <label className="label" htmlFor="phases">
+                Phases
+              </label>
+              <select id="phases" className="field" {...register("phases", { setValueAs: (v) => (Number(v) === 1 ? 1 : 3) })} {...aria("phases")}>
+                <option value={3}>Three-phase (voltage phase to phase)</option>
+                <option value={1}>Single-phase tap (voltage to ground)</option>
+              </select>
+              <FieldError id="phases-error" msg={err("phases")} />
+            </div>
+            {phases === 1 && (
+              <div>
+                <label className="label" htmlFor="systemKv">
+                  System voltage, phase to phase (kV)
+                </label>
+                <input id="systemKv" type="number" step="0.001" min={0} className="field" placeholder="e.g. 12.47" {...register("systemKv", { setValueAs: nullableNumber })} {...aria("systemKv")} />
+                <FieldError id="systemKv-error" msg={err("systemKv")} />
+                {tapLabel && (
+                  <p className="mt-1 text-xs text-ink-500" data-testid="voltage-label">
+                    Shows as <strong>{tapLabel}</strong>
+                  </p>
+                )}
+              </div>
+            )}
+            <div>
+              <label className="label" htmlFor="nearEnergizedKv">
+                Energized parts nearby (kV)
+              </label>
+              <input
+                id="nearEnergizedKv"
+                type="number"
+                step="0.001"
+                min={0}
+                className="field"
+                {...register("nearEnergizedKv", { setValueAs: nullableNumber })}
+                aria-invalid={err("nearEnergizedKv") ? true : undefined}
+                aria-describedby={err("nearEnergizedKv") ? "nearEnergizedKv-hint nearEnergizedKv-error" : "nearEnergizedKv-hint"}
+              />
+              <p id="nearEnergizedKv-hint" className="mt-1 text-xs text-ink-500">
+                When this work is de-energized: the highest voltage of exposed live parts within reach of the crew or its equipment (a live
+                feeder beside the pole). Above 0.6 kV the two-worker minimum and the observer rule still apply.
+              </p>
+              <FieldError id="nearEnergizedKv-error" msg={err("nearEnergizedKv")} />
             </div>
             <div>
               <label className="label" htmlFor="crewException">

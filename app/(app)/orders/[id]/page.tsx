@@ -9,6 +9,7 @@ import { listYards, todayIn } from "@/lib/data/yards";
 import { fmtDate, POSITION_LABEL } from "@/lib/format";
 import { editValuesFromView } from "@/lib/orders/form";
 import { locateBadgeLabel } from "@/lib/orders/locate";
+import { energyLabel } from "@/lib/orders/voltage";
 import type { SeriesTemplate } from "@/lib/orders/series";
 import { CREW_EXCEPTION_LABEL, STATUS_LABEL, STATUS_TONE } from "@/lib/orders/status";
 import { floating, floatingToLocal, repeatFormFrom } from "@/lib/recurrence-core";
@@ -52,6 +53,9 @@ export default async function OrderPage({ params, searchParams }: { params: Prom
         end: floatingToLocal(floating(start) + order.series.durationMinutes * 60_000).slice(0, 16),
         energized: t.energized,
         voltageKv: t.voltageKv,
+        nearEnergizedKv: t.nearEnergizedKv ?? null,
+        phases: t.phases ?? 3,
+        systemKv: t.systemKv ?? null,
         emergency: t.emergency,
         crewException: (t.crewException as OrderFormShape["crewException"]) ?? null,
         minCrew: t.minCrew,
@@ -120,9 +124,22 @@ export default async function OrderPage({ params, searchParams }: { params: Prom
             </dd>
             <dt className="text-ink-500">Work</dt>
             <dd>
-              {order.workTypeName} · {order.energized ? `energized${order.voltageKv !== null ? `, ${order.voltageKv} kV` : ""}` : "de-energized"}
+              {order.workTypeName} · <span data-testid="order-energy">{energyLabel(order)}</span>
               {order.crewException ? ` · exception: ${CREW_EXCEPTION_LABEL[order.crewException]}` : ""}
             </dd>
+            {order.shifts.length > 0 && (
+              <>
+                <dt className="text-ink-500">Shifts</dt>
+                <dd data-testid="order-shift-list">
+                  {order.shifts.map((s, i) => (
+                    <span key={i} className="block">
+                      {fmtDate(s.startLocal.slice(0, 10))} {s.startLocal.slice(11, 16)}–{s.endLocal.slice(11, 16)}
+                      {s.endLocal.slice(0, 10) !== s.startLocal.slice(0, 10) ? " (next day)" : ""}
+                    </span>
+                  ))}
+                </dd>
+              </>
+            )}
             <dt className="text-ink-500">Crew</dt>
             <dd>
               {order.staffed} of {order.positions} positions filled{order.minCrew ? ` · minimum ${order.minCrew} on site` : ""}
