@@ -15,6 +15,7 @@ import { ApiError } from "@/lib/api/http";
 import { audit, type Actor } from "@/lib/data/audit";
 import { boardEvent } from "@/lib/data/events";
 import { appPublicUrl } from "@/lib/notify/config";
+import { assertAttachable } from "@/lib/files";
 import { toGsm7 } from "@/lib/notify/messages";
 import { enqueue, type OutboxInput } from "@/lib/notify/outbox";
 import type { Role } from "@/lib/auth/roles";
@@ -417,12 +418,13 @@ function cleanData(data: BriefingData, crew: CrewMember[]): BriefingData {
   return { ...data, dropZone: { ...data.dropZone, entrants: [...new Set(data.dropZone.entrants)].filter((w) => ids.has(w)) } };
 }
 
-async function assertPhotos(trx: Knex.Transaction, organisationId: number, data: BriefingData) {
-  const ids = POLE_CHECKS.map((c) => data.poleCheck.items[c.key].photoFileId).filter((v): v is number => v !== null);
-  if (!ids.length) return;
-  const found = (await trx("files").whereIn("id", ids).where({ organisation_id: organisationId }).pluck("id")).map(Number);
-  const missing = ids.find((i) => !found.includes(i));
-  if (missing) throw new ApiError(422, "A pole-check photo is not on file; upload it again.", { issues: [{ field: "poleCheck", message: "Photo not found" }] });
+async function assertPhotos(trx: Knex.Transaction, user: BriefingActor, orderId: number, data: BriefingData) {
+  // Every pole-check photo must be a photo taken for this order's briefing (lib/files.ts
+  // assertAttachable): another worker's evidence or another order's photo is refused.
+  for (const c of POLE_CHECKS) {
+    const id = data.poleCheck.items[c.key].photoFileId;
+    if (id !== null) await assertAttachable(trx, user, id, { kind: "briefing_photo", orderId }, `poleCheck.items.${c.key}.photoFileId`);
+  }
 }
 
 const EDITABLE_STATUSES = new Set(["draft", "planned", "sent", "in_progress"]);
@@ -449,7 +451,7 @@ export async function saveBriefing(
     }
     if (l.row && l.row.state === "on_hold") throw new ApiError(409, "This briefing is on hold.", { reason: "on_hold" });
     const data = cleanData(input.data, l.crew);
-    await assertPhotos(trx, user.organisationId, data);
+    await assertPhotos(trx, user, orderId, data);
     if (input.action === "complete") {
       const issues = completionIssues(data, l.crew.flatMap((c) => c.positions.map((p) => ({ workerId: c.workerId, position: p }))));
       if (issues.length) throw new ApiError(422, `Not complete: ${issues[0].message}.`, { issues });
@@ -594,7 +596,7 @@ export async function holdOrder(db: Knex, user: BriefingActor, orderId: number, 
     if (!EDITABLE_STATUSES.has(l.order.status)) throw new ApiError(409, `${l.order.number} is ${l.order.status}.`, { reason: "closed" });
     checkVersion(l, input.version);
     const data = cleanData(input.data, l.crew);
-    await assertPhotos(trx, user.organisationId, data);
+    await assertPhotos(trx, user, orderId, data);
     const failed = failedChecks(data);
     if (failed.length) data.poleCheck.failAction = "hold";
     const now = new Date();

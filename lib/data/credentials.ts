@@ -3,6 +3,7 @@ import { ApiError } from "@/lib/api/http";
 import { daysBetween } from "@/lib/format";
 import { audit, type Actor } from "./audit";
 import { boardEvent } from "./events";
+import { assertAttachable } from "@/lib/files";
 import { todayIn } from "./yards";
 import { inView, proposeExpiry, type CredentialCreate, type CredentialPatch, type CredentialView } from "@/lib/validation/credential";
 
@@ -254,15 +255,6 @@ function dupSlot(err: unknown) {
   return err;
 }
 
-async function checkEvidence(trx: Knex.Transaction, organisationId: number, fileId: number, workerId: number) {
-  const file = await trx("files").where({ id: fileId, organisation_id: organisationId }).first("id", "worker_id");
-  if (!file) throw issue(422, "evidenceFileId", "No such uploaded file");
-  if (file.worker_id !== null && Number(file.worker_id) !== workerId) {
-    throw issue(422, "evidenceFileId", "That file is another worker's evidence");
-  }
-  if (file.worker_id === null) await trx("files").where({ id: fileId }).update({ worker_id: workerId });
-}
-
 /**
  * Adds or renews a credential. HR and admin write a current record: the worker's current
  * record of that type (if any) becomes superseded and the new one points at it
@@ -290,7 +282,7 @@ export async function createCredential(db: Knex, actor: CredentialActor, input: 
       if (input.issuedOn > today) throw issue(422, "issuedOn", `The issue date is after today (${today})`);
       const expiresOn = input.expiresOn === undefined ? proposeExpiry(input.issuedOn, type.renewal_months) : input.expiresOn;
       if (expiresOn && expiresOn < input.issuedOn) throw issue(422, "expiresOn", "The expiry is before the issue date");
-      if (input.evidenceFileId) await checkEvidence(trx, actor.organisationId, input.evidenceFileId, input.workerId);
+      if (input.evidenceFileId) await assertAttachable(trx, actor, input.evidenceFileId, { kind: "evidence", workerId: input.workerId }, "evidenceFileId");
       else if (isLineworker) throw issue(422, "evidenceFileId", "Upload a scan or photo of the new card or certificate");
       else if (type.needs_evidence)
         throw issue(422, "evidenceFileId", `${type.name} needs evidence: upload the card or certificate`);

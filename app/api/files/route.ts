@@ -1,26 +1,14 @@
 import { db } from "@/lib/db";
 import { ApiError, handler, json } from "@/lib/api/http";
 import { requireRole } from "@/lib/auth/session";
-import { storeUpload } from "@/lib/files";
-import { MAX_UPLOAD_BYTES } from "@/lib/validation/file";
+import { readUploadForm, storeUpload } from "@/lib/files";
 
 // POST multipart/form-data: `file` (PDF, JPEG or PNG, up to 10 MB) and `workerId` (whose
 // evidence it is). hr and admin for any worker; a lineworker for their own record only.
 export const POST = handler(async (req) => {
   const user = await requireRole("hr", "admin", "lineworker");
-  // Far past the limit: refuse before reading the body at all.
-  const length = Number(req.headers.get("content-length") ?? 0);
-  if (length > MAX_UPLOAD_BYTES * 4) throw new ApiError(413, "The upload is far larger than the 10 MB limit.");
-  let form: FormData;
-  try {
-    form = await req.formData();
-  } catch {
-    throw new ApiError(400, "Send the file as multipart/form-data with a field named file.");
-  }
-  const file = form.get("file");
-  if (!(file instanceof File)) {
-    throw new ApiError(422, "Pick a file to upload.", { issues: [{ field: "file", message: "Pick a file to upload." }] });
-  }
+  // Read with a streaming limit: a chunked or understated body stops at the limit (413).
+  const { form, file } = await readUploadForm(req);
   const rawWorker = form.get("workerId");
   let workerId: number | null = rawWorker === null || rawWorker === "" ? null : Number(rawWorker);
   if (workerId !== null && (!Number.isSafeInteger(workerId) || workerId <= 0)) {
@@ -35,6 +23,6 @@ export const POST = handler(async (req) => {
     if (!w) throw new ApiError(422, "workerId: no such worker", { issues: [{ field: "workerId", message: "No such worker" }] });
   }
   const bytes = new Uint8Array(await file.arrayBuffer());
-  const stored = await storeUpload(db(), user, { name: file.name, bytes, workerId });
+  const stored = await storeUpload(db(), user, { name: file.name, bytes, workerId, kind: "evidence" });
   return json({ file: stored }, 201);
 });

@@ -3,8 +3,7 @@ import { ApiError, handler, json } from "@/lib/api/http";
 import { idParam } from "@/lib/api/ids";
 import { requireRole } from "@/lib/auth/session";
 import { loadBriefing, modeFor } from "@/lib/data/briefings";
-import { storeUpload } from "@/lib/files";
-import { MAX_UPLOAD_BYTES } from "@/lib/validation/file";
+import { readUploadForm, storeUpload } from "@/lib/files";
 
 type P = { orderId: string };
 
@@ -18,19 +17,8 @@ export const POST = handler<P>(async (req, ctx) => {
   const view = await loadBriefing(db(), user.organisationId, orderId);
   if (!view) throw new ApiError(404, "No such work order.");
   if (modeFor(user, view) !== "lead") throw new ApiError(403, "Only the crew lead adds pole-check photos.");
-  const length = Number(req.headers.get("content-length") ?? 0);
-  if (length > MAX_UPLOAD_BYTES * 4) throw new ApiError(413, "The upload is far larger than the 10 MB limit.");
-  let form: FormData;
-  try {
-    form = await req.formData();
-  } catch {
-    throw new ApiError(400, "Send the photo as multipart/form-data with a field named file.");
-  }
-  const file = form.get("file");
-  if (!(file instanceof File)) {
-    throw new ApiError(422, "Pick a photo to upload.", { issues: [{ field: "file", message: "Pick a photo to upload." }] });
-  }
+  const { file } = await readUploadForm(req);
   const bytes = new Uint8Array(await file.arrayBuffer());
-  const stored = await storeUpload(db(), user, { name: file.name, bytes, workerId: null });
+  const stored = await storeUpload(db(), user, { name: file.name, bytes, workerId: null, kind: "briefing_photo", workOrderId: orderId });
   return json({ file: { id: stored.id, name: stored.originalName, mime: stored.mime, size: stored.sizeBytes } }, 201);
 });

@@ -18,7 +18,8 @@ export const GET = handler<P>(async (_req, ctx) => {
   if (!view) throw new ApiError(404, "No such work order.");
   modeFor(user, view);
   if (!(await briefingPhotoIds(db(), orderId)).has(fileId)) throw new ApiError(404, "No such photo on this briefing.");
-  const row = await db()("files").where({ id: fileId, organisation_id: user.organisationId }).first();
+  // Only a photo taken for this order's briefing (files.kind, files.work_order_id).
+  const row = await db()("files").where({ id: fileId, organisation_id: user.organisationId, kind: "briefing_photo", work_order_id: orderId }).first();
   if (!row) throw new ApiError(404, "No such photo.");
   const bytes = await readBlob(row.sha256);
   if (!bytes) throw new ApiError(404, "The stored photo is missing.");
