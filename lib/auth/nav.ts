@@ -1,3 +1,4 @@
+import { fakesEnabled } from "@/lib/notify/config";
 import type { Role } from "./roles";
 
 export interface NavItem {
@@ -24,6 +25,6 @@ export const NAV: NavItem[] = [
   { href: "/phone", label: "Phone simulator", roles: ["dispatcher", "supervisor", "admin"], fakesOnly: true },
 ];
 
-export function navFor(role: Role, fakesEnabled = process.env.FAKES_ENABLED === "1") {
-  return NAV.filter((n) => n.roles.includes(role) && (!n.fakesOnly || fakesEnabled));
+export function navFor(role: Role, fakesOn = fakesEnabled()) {
+  return NAV.filter((n) => n.roles.includes(role) && (!n.fakesOnly || fakesOn));
 }

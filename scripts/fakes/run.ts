@@ -3,13 +3,19 @@
 import { startMailFake } from "./mail";
 import { startSmsFake } from "./sms";
 
+/** The installation's SMS auth token (scripts/lib/common.sh generates it into .data); no default. */
+function requiredToken(token: string | undefined): string {
+  if (!token) throw new Error("TWILIO_AUTH_TOKEN is not set; source scripts/lib/common.sh (it generates one into .data/sms-auth-token).");
+  return token;
+}
+
 async function main() {
   const env = process.env;
   const stamp = () => new Date().toISOString().slice(11, 19);
   const sms = await startSmsFake({
     port: Number(env.SMS_FAKE_PORT ?? 4010),
     accountSid: env.TWILIO_ACCOUNT_SID ?? "AC00000000000000000000000000000000",
-    authToken: env.TWILIO_AUTH_TOKEN ?? "fake-auth-token-for-local-use",
+    authToken: requiredToken(env.TWILIO_AUTH_TOKEN),
     fromNumber: env.TWILIO_FROM_NUMBER ?? "+13205550199",
     appPublicUrl: env.APP_PUBLIC_URL,
     log: (m) => console.log(`${stamp()} [sms]  ${m}`),

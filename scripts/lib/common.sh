@@ -124,15 +124,27 @@ migrate_and_seed() {
 
 # The app's settings for this machine. A real deployment sets these in its environment
 # instead (see README: "Real SMS and e-mail").
-secret_file="$DATA_DIR/nextauth-secret"
-[ -f "$secret_file" ] || head -c 32 /dev/urandom | base64 > "$secret_file"
-export NEXTAUTH_SECRET="${NEXTAUTH_SECRET:-$(cat "$secret_file")}"
+# Every signing secret is generated once per installation into the ignored .data folder
+# (mode 600); none is written in the repository.
+installation_secret() {
+  # installation_secret NAME: prints .data/NAME, creating it with 32 random bytes when missing.
+  local file="$DATA_DIR/$1"
+  if [ ! -s "$file" ]; then
+    (umask 077 && head -c 32 /dev/urandom | base64 | tr -d '\n=/+' > "$file")
+  fi
+  cat "$file"
+}
+export NEXTAUTH_SECRET="${NEXTAUTH_SECRET:-$(installation_secret nextauth-secret)}"
 export TWILIO_ACCOUNT_SID="${TWILIO_ACCOUNT_SID:-AC00000000000000000000000000000000}"
-export TWILIO_AUTH_TOKEN="${TWILIO_AUTH_TOKEN:-fake-auth-token-for-local-use}"
+# The SMS provider's auth token signs inbound texts (the webhook's only check). With the fakes
+# it is this installation's own random token, shared by the app and the SMS fake.
+export TWILIO_AUTH_TOKEN="${TWILIO_AUTH_TOKEN:-$(installation_secret sms-auth-token)}"
 export TWILIO_FROM_NUMBER="${TWILIO_FROM_NUMBER:-+13205550199}"
 export TWILIO_API_BASE="${TWILIO_API_BASE:-http://127.0.0.1:$SMS_FAKE_PORT}"
 export SMTP_HOST="${SMTP_HOST:-127.0.0.1}"
 export MAIL_FROM="${MAIL_FROM:-Gaffline dispatch <dispatch@cedarprairie.example>}"
+# The fakes (and the phone simulator that talks to them) are on for the local demo and tests;
+# the app also requires that it is served on loopback before it shows the simulator.
 export FAKES_ENABLED="${FAKES_ENABLED:-1}"
 
 APP_PID=""

@@ -2,6 +2,7 @@
 // to the SMS fake, real SMTP to the mail fake). Counts are taken at the fakes: the app's own
 // delivery loop drains the outbox too, so who sent a message does not matter, only how often.
 import { afterAll, afterEach, beforeAll, describe, expect, it } from "vitest";
+import { smsAuthToken } from "@/tests/support/secrets";
 import twilio from "twilio";
 import { as, Client } from "../support/client";
 import {
@@ -24,7 +25,7 @@ import { smsAdapter } from "@/lib/notify/sms";
 const FULL = process.env.GAFFLINE_FULL === "1";
 const db = testDb();
 const WEBHOOK = `${(process.env.APP_PUBLIC_URL ?? process.env.APP_URL ?? "http://127.0.0.1:3100").replace(/\/$/, "")}/api/sms/inbound`;
-const TOKEN = process.env.TWILIO_AUTH_TOKEN ?? "fake-auth-token-for-local-use";
+const TOKEN = smsAuthToken();
 const run = `${process.pid}-${Date.now()}`;
 let dispatcher: Client;
 

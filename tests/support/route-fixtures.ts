@@ -3,6 +3,7 @@
 // again afterwards: everything this file's run created is found by id above the maxima taken
 // before it started (test files run one at a time).
 import { randomInt } from "node:crypto";
+import { smsAuthToken } from "@/tests/support/secrets";
 import type { Knex } from "knex";
 import twilio from "twilio";
 import { addDays, todayIn } from "@/lib/data/yards";
@@ -231,7 +232,7 @@ export async function buildFixtures(db: Knex, opts: { firstOffset?: number } = {
   const marcusUnavailabilityId = await unavailability(Number(marcusRow.id), "approved");
 
   const webhook = `${(process.env.APP_PUBLIC_URL ?? process.env.APP_URL ?? "http://127.0.0.1:3100").replace(/\/$/, "")}/api/sms/inbound`;
-  const token = process.env.TWILIO_AUTH_TOKEN ?? "fake-auth-token-for-local-use";
+  const token = smsAuthToken();
 
   const fx: Fx = {
     db,

@@ -1,4 +1,4 @@
-import { ApiError, handler, json } from "@/lib/api/http";
+import { ApiError, handler, json, readBodyText } from "@/lib/api/http";
 import { requireRole } from "@/lib/auth/session";
 import { CAN_DISPATCH } from "@/lib/auth/roles";
 import { parseDayInput } from "@/lib/rules/input";
@@ -8,8 +8,7 @@ import { crewCheckReport } from "@/lib/rules/report";
 // `npm run crew-check`, the same engine as the board.
 export const POST = handler(async (req) => {
   await requireRole(...CAN_DISPATCH);
-  const text = await req.text();
-  if (text.length > 20_000_000) throw new ApiError(413, "The day is larger than 20 MB.");
+  const text = await readBodyText(req, 20_000_000, "The day");
   let body: unknown;
   try {
     body = JSON.parse(text);

@@ -1,4 +1,6 @@
+import { randomBytes } from "node:crypto";
 import { db } from "@/lib/db";
+import { audit } from "@/lib/data/audit";
 import { ApiError, handler, json, readJson, readQuery } from "@/lib/api/http";
 import { requireRole } from "@/lib/auth/session";
 import { fakesEnabled, inboundWebhookUrl, smsFakeBase } from "@/lib/notify/config";
@@ -29,7 +31,7 @@ async function ownPhone(organisationId: number, phone: string) {
 
 export const GET = handler(async (req) => {
   const user = await requireRole(...ROLES);
-  if (!fakesEnabled()) throw new ApiError(404, "The phone simulator is off (FAKES_ENABLED is not 1).");
+  if (!fakesEnabled()) throw new ApiError(404, "The phone simulator is off (it needs FAKES_ENABLED=1 and an app served on loopback only).");
   const { phone } = readQuery(req, phoneQuerySchema);
   await ownPhone(user.organisationId, phone);
   const body = await fake(`/_fake/messages?phone=${encodeURIComponent(phone)}`);
@@ -38,13 +40,26 @@ export const GET = handler(async (req) => {
 
 export const POST = handler(async (req) => {
   const user = await requireRole(...ROLES);
-  if (!fakesEnabled()) throw new ApiError(404, "The phone simulator is off (FAKES_ENABLED is not 1).");
+  if (!fakesEnabled()) throw new ApiError(404, "The phone simulator is off (it needs FAKES_ENABLED=1 and an app served on loopback only).");
   const input = await readJson(req, phoneReplySchema);
   await ownPhone(user.organisationId, input.from);
+  // Our own message id, so the reply the webhook stores can be tied to who typed it.
+  const messageSid = `SMsim${randomBytes(14).toString("hex")}`;
   const body = await fake("/_fake/inbound", {
     method: "POST",
     headers: { "content-type": "application/json" },
-    body: JSON.stringify({ from: input.from, body: input.body, webhookUrl: inboundWebhookUrl() }),
+    body: JSON.stringify({ from: input.from, body: input.body, webhookUrl: inboundWebhookUrl(), messageSid }),
+  });
+  // The webhook handled it like any text (its own audit rows have no user); this row says it
+  // came from the simulator and who typed it (issue 15, finding 11).
+  const inbound = await db()("inbound_messages").where({ provider_sid: messageSid }).first("id", "worker_id", "outcome");
+  await audit(db(), user, user.organisationId, "phone.simulated_reply", "inbound_message", inbound ? Number(inbound.id) : null, {
+    from: input.from,
+    body: input.body.slice(0, 200),
+    messageSid,
+    outcome: inbound?.outcome ?? null,
+    workerId: inbound?.worker_id ?? null,
+    typedBy: user.name,
   });
   return json({ status: body.status, replies: body.replies ?? [] });
 });
