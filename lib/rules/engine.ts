@@ -5,6 +5,8 @@ import { climbCert } from "./climb-cert";
 import type { RuleCheck } from "./common";
 import { crewMin } from "./crew-min";
 import { doubleBooked } from "./double-booked";
+import { equipmentRule } from "./equipment";
+import { equipmentBooked } from "./equipment-booked";
 import { firstAid } from "./first-aid";
 import { inCharge } from "./in-charge";
 import { locate } from "./locate";
@@ -13,11 +15,15 @@ import { operatorCert } from "./operator-cert";
 import { qualified } from "./qualified";
 import { rescue } from "./rescue";
 import { rest } from "./rest";
+import { rigging } from "./rigging";
+import { rubberGoods } from "./rubber-goods";
 import { SnapshotIndex } from "./snapshot-index";
+import { applyEquipmentChange, isEquipmentChange, type EquipmentChange } from "./equipment-index";
 import type { Assignment, DaySnapshot, Finding, Policy, RuleCode, WorkOrder } from "./types";
 import { unavailable } from "./unavailable";
 
 export { SnapshotIndex } from "./snapshot-index";
+export type { EquipmentChange } from "./equipment-index";
 
 export const RULES: ReadonlyArray<{ code: RuleCode; check: RuleCheck }> = [
   { code: "CREW_MIN", check: crewMin },
@@ -31,6 +37,10 @@ export const RULES: ReadonlyArray<{ code: RuleCode; check: RuleCheck }> = [
   { code: "IN_CHARGE", check: inCharge },
   { code: "DOUBLE_BOOKED", check: doubleBooked },
   { code: "UNAVAILABLE", check: unavailable },
+  { code: "RUBBER_GOODS", check: rubberGoods },
+  { code: "EQUIPMENT", check: equipmentRule },
+  { code: "EQUIPMENT_BOOKED", check: equipmentBooked },
+  { code: "RIGGING", check: rigging },
   { code: "LOCATE", check: locate },
 ];
 
@@ -38,7 +48,8 @@ export const RULES: ReadonlyArray<{ code: RuleCode; check: RuleCheck }> = [
 export type AssignmentChange =
   | { kind: "add"; assignment: Assignment }
   | { kind: "remove"; assignment: Assignment }
-  | { kind: "move"; from: Assignment; to: Assignment };
+  | { kind: "move"; from: Assignment; to: Assignment }
+  | EquipmentChange;
 
 const cmp = (a: string, b: string) => (a < b ? -1 : a > b ? 1 : 0);
 
@@ -146,8 +157,17 @@ export function createEngine(snapshot: DaySnapshot): RuleEngine {
       workers: snapshot.workers,
       workOrders: snapshot.workOrders,
       assignments: ix.allAssignments(),
+      ...(snapshot.equipment !== undefined
+        ? { equipment: snapshot.equipment, equipmentAssignments: ix.equipment.all(ix.orderIds) }
+        : {}),
     }),
     apply(change) {
+      if (isEquipmentChange(change)) {
+        const affected = applyEquipmentChange(ix.equipment, ix.orders, change);
+        for (const [id, list] of evaluate(ix, resolveOrders(ix, affected))) byOrder.set(id, list);
+        current = flatten(ix, byOrder);
+        return current.slice();
+      }
       const touched = change.kind === "move" ? [change.from, change.to] : [change.assignment];
       for (const a of touched) check(a);
       const affected = new Set<string>();

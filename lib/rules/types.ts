@@ -2,6 +2,9 @@
 // Times inside a snapshot are epoch milliseconds (already resolved from wall-clock time in
 // the snapshot's IANA zone); dates are YYYY-MM-DD in that zone.
 
+import type { Equipment, EquipmentAssignment, GearItem, SiteFields } from "./equipment-types";
+export * from "./equipment-types";
+
 export const CLASSIFICATIONS = ["journeyman", "apprentice", "ground_hand", "operator", "crew_lead"] as const;
 export type Classification = (typeof CLASSIFICATIONS)[number];
 
@@ -27,6 +30,10 @@ export const RULE_CODES = [
   "IN_CHARGE",
   "DOUBLE_BOOKED",
   "UNAVAILABLE",
+  "RUBBER_GOODS",
+  "EQUIPMENT",
+  "EQUIPMENT_BOOKED",
+  "RIGGING",
   "LOCATE",
 ] as const;
 export type RuleCode = (typeof RULE_CODES)[number];
@@ -77,9 +84,12 @@ export interface Worker {
   credentials: Credential[];
   unavailable: Unavailability[];
   timeRecords: Interval[];
+  /** Rubber gloves and sleeves; absent = gear not tracked for this worker (RUBBER_GOODS skips them). */
+  gear?: GearItem[];
 }
 
-export interface WorkOrder {
+/** Site fields (altitudeM, phases, systemKv, lift): see equipment-types.ts. */
+export interface WorkOrder extends SiteFields {
   id: string;
   title: string;
   start: number; // epoch ms
@@ -127,6 +137,9 @@ export interface DaySnapshot {
   workers: Worker[];
   workOrders: WorkOrder[];
   assignments: Assignment[];
+  /** The day's equipment; absent = equipment not tracked (EQUIPMENT, EQUIPMENT_BOOKED skip). */
+  equipment?: Equipment[];
+  equipmentAssignments?: EquipmentAssignment[];
 }
 
 export interface Finding {
@@ -136,6 +149,8 @@ export interface Finding {
   workerId: string | null;
   message: string;
   source: string;
+  /** The piece of equipment a finding is about (EQUIPMENT, EQUIPMENT_BOOKED); not in the report. */
+  equipmentId?: string;
   /** A locked finding can never be overridden. */
   locked?: boolean;
 }
