@@ -69,6 +69,12 @@ export function wallTimeWords(wall: string): string {
   return `${dateWords(wall.slice(0, 10))} ${wall.slice(11, 16)}`;
 }
 
+/** Two zoned wall times as words: "6 April 2027 07:00 to 15:30", or with both dates when they differ. */
+export function spanWords(startWall: string, endWall: string): string {
+  const end = startWall.slice(0, 10) === endWall.slice(0, 10) ? endWall.slice(11, 16) : wallTimeWords(endWall);
+  return `${wallTimeWords(startWall)} to ${end}`;
+}
+
 /** Above 0.6 kV: the two-worker minimum's threshold (more than 600 volts). */
 export const HIGH_VOLTAGE_KV = 0.6;
 

@@ -1,7 +1,7 @@
 // DOUBLE_BOOKED: one worker on two orders that overlap in time (end == start is not overlap).
 // Locked: nobody can be in two places, so no override accepts it (issue 15).
 
-import { finding, wallTimeWords, who, type RuleCheck } from "./common";
+import { finding, spanWords, who, type RuleCheck } from "./common";
 import { epochToZonedWallTime } from "./time";
 import type { Finding } from "./types";
 
@@ -9,14 +9,14 @@ export const DOUBLE_BOOKED_SOURCE = "scheduling conflict (no regulation)";
 
 export const doubleBooked: RuleCheck = (orders, ix) => {
   const out: Finding[] = [];
-  const local = (ms: number) => wallTimeWords(epochToZonedWallTime(ms, ix.timezone));
+  const span = (a: number, b: number) => spanWords(epochToZonedWallTime(a, ix.timezone), epochToZonedWallTime(b, ix.timezone));
   for (const order of orders) {
     for (const w of ix.crew(order.id).people) {
       const clashes = ix
         .ordersOf(w.id)
         .filter((o) => o.id !== order.id && o.start < order.end && order.start < o.end)
         .sort((a, b) => (a.id < b.id ? -1 : a.id > b.id ? 1 : 0))
-        .map((o) => `"${o.title}" (${local(o.start)} to ${local(o.end)})`);
+        .map((o) => `"${o.title}" (${span(o.start, o.end)})`);
       if (clashes.length > 0) {
         out.push(
           finding(

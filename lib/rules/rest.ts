@@ -4,7 +4,7 @@
 // An order that lists `shifts` (a multi-day order, Corrections 6) is worked during those
 // shifts only, not over its whole span.
 
-import { finding, hours, wallTimeWords, who, type RuleCheck } from "./common";
+import { finding, hours, spanWords, who, type RuleCheck } from "./common";
 import { upperBound, type SnapshotIndex } from "./snapshot-index";
 import { epochToZonedWallTime } from "./time";
 import type { Finding, Interval, Worker, WorkOrder } from "./types";
@@ -55,7 +55,7 @@ export const rest: RuleCheck = (orders, ix) => {
   const out: Finding[] = [];
   const { minRestHours, maxShiftHours } = ix.policy;
   const tz = ix.timezone;
-  const local = (ms: number) => wallTimeWords(epochToZonedWallTime(ms, tz));
+  const span = (a: number, b: number) => spanWords(epochToZonedWallTime(a, tz), epochToZonedWallTime(b, tz));
   for (const order of orders) {
     const worked = workedIntervals(order);
     for (const w of ix.crew(order.id).people) {
@@ -72,7 +72,7 @@ export const rest: RuleCheck = (orders, ix) => {
             "block",
             order,
             w.id,
-            `${who(w)} would work a ${hours(st.end - st.start)} h stretch (${local(st.start)} to ${local(st.end)}) ` +
+            `${who(w)} would work a ${hours(st.end - st.start)} h stretch (${span(st.start, st.end)}) ` +
               `without ${minRestHours} h rest; the limit is ${maxShiftHours} h. ` +
               `Give at least ${minRestHours} h rest before this order or assign someone else.`,
             REST_SOURCE,

@@ -34,8 +34,10 @@ describe("crew-check CLI", () => {
     const out = JSON.parse(r.stdout);
     expect(Object.keys(out)).toEqual(["findings", "summary"]);
     for (const f of out.findings) expect(Object.keys(f)).toEqual(["rule", "level", "workOrderId", "workerId", "message", "source"]);
-    const own = out.findings.find((f: { message: string }) => f.message.startsWith("Needs at least 3 workers on site; 1 assigned."));
-    expect(own).toMatchObject({ rule: "CREW_MIN", level: "block", workOrderId: "wo-2201", workerId: null, source: "29 CFR 1910.269(l)(2)(i)" });
+    // Corrections 1: the order's own minimum cites the crew template; the two-worker part cites (l)(2)(i)(A).
+    const own = out.findings.find((f: { message: string }) => f.message.startsWith("This order's crew template asks for at least 3 people on site; 1 assigned."));
+    expect(own).toMatchObject({ rule: "CREW_MIN", level: "block", workOrderId: "wo-2201", workerId: null });
+    expect(own.source).toMatch(/^the organisation's crew template for this work \(policy\); 29 CFR 1910\.269\(l\)\(2\)\(i\)\(A\)/);
     const blocks = out.findings.filter((f: { level: string }) => f.level === "block").length;
     expect(out.summary).toEqual({ block: blocks, warn: out.findings.length - blocks });
   });

@@ -23,13 +23,18 @@ describe("checkDay", () => {
     expect(checkDay(day(good(), [order("o")], clean()))).toEqual([]);
   });
 
-  it("the CREW-CHECK.md example gives the contract's CREW_MIN finding", () => {
+  it("the CREW-CHECK.md example: one CREW_MIN naming the crew template (Corrections 1) and (l)(2)(i)(A)", () => {
     const parsed = parseDayInput(exampleInput());
     if (!parsed.ok) throw new Error(parsed.errors.join("\n"));
     const findings = checkDay(parsed.snapshot);
-    const ownMinimum = findings.find((f) => f.rule === "CREW_MIN" && f.message.startsWith("Needs at least 3 workers on site; 1 assigned."));
-    expect(ownMinimum).toMatchObject({ rule: "CREW_MIN", level: "block", workOrderId: "wo-2201", workerId: null, source: "29 CFR 1910.269(l)(2)(i)" });
-    expect(findings.map((f) => f.rule)).toEqual(["CREW_MIN", "CREW_MIN", "OBSERVER", "RESCUE"]);
+    const crewMin = findings.filter((f) => f.rule === "CREW_MIN");
+    expect(crewMin).toHaveLength(1);
+    expect(crewMin[0]).toMatchObject({ level: "block", workOrderId: "wo-2201", workerId: null });
+    expect(crewMin[0].message).toMatch(/^This order's crew template asks for at least 3 people on site; 1 assigned\. Add 2 more workers\./);
+    expect(crewMin[0].source).toBe(
+      "the organisation's crew template for this work (policy); 29 CFR 1910.269(l)(2)(i)(A); OSHA letter of interpretation of 1994-11-08 (two qualified employees)",
+    );
+    expect(findings.map((f) => f.rule)).toEqual(["CREW_MIN", "OBSERVER", "RESCUE"]);
   });
 
   it("sorts by order, then rule, then worker (null first), by plain string comparison", () => {
@@ -54,14 +59,19 @@ describe("checkDay", () => {
 describe("policy levels", () => {
   const twoNoLead = () => day(good(), [order("o", { workType: "other" })], [["o", "climb", "ground"], ["o", "obs", "ground"]]);
 
-  it("IN_CHARGE is warn by default", () => {
-    expect(checkDay(twoNoLead()).map((f) => [f.rule, f.level])).toEqual([["IN_CHARGE", "warn"]]);
+  it("IN_CHARGE is block by default (Corrections 5, 1910.269(c)(1))", () => {
+    // De-energized "other" work: outside the two-worker minimum, so IN_CHARGE stands alone.
+    const s = twoNoLead();
+    s.workOrders[0].energized = false;
+    expect(checkDay(s).map((f) => [f.rule, f.level])).toEqual([["IN_CHARGE", "block"]]);
   });
 
   it("a policy may raise warn to block", () => {
-    const s = twoNoLead();
-    s.policy.levels = { IN_CHARGE: "block" };
-    expect(checkDay(s).map((f) => [f.rule, f.level])).toEqual([["IN_CHARGE", "block"]]);
+    // The bucket observer warning (Corrections 4) raised to block.
+    const s = day(good(), [order("o", { workType: "bucket" })], [["o", "lead", "lead"], ["o", "climb", "aerial"]]);
+    expect(checkDay(s).filter((f) => f.rule === "OBSERVER").map((f) => f.level)).toEqual(["warn"]);
+    s.policy.levels = { OBSERVER: "block" };
+    expect(checkDay(s).filter((f) => f.rule === "OBSERVER").map((f) => f.level)).toEqual(["block"]);
   });
 
   it("a policy may not lower block to warn, and a locked finding stays block", () => {

@@ -65,9 +65,15 @@ const cases: Array<{ name: string; order: OrderOpts; crew: A[]; expected: string
     expected: ["o/-/block"],
   },
   {
-    name: "common practice: bucket work has no climbing observer (its 'climber' is in the bucket)",
+    name: "common practice: bucket work has no climbing observer (its 'climber' is in the bucket); (p)(4)(ii) Corrections 4 only warns",
     order: { workType: "bucket" },
     crew: [["o", "j1", "climber"]],
+    expected: ["o/-/warn"],
+  },
+  {
+    name: "(p)(4)(ii) Corrections 4: bucket work with a ground hand on the ground: no warning",
+    order: { workType: "bucket" },
+    crew: [["o", "j1", "climber"], ["o", "j2", "ground"]],
     expected: [],
   },
   { name: "patrol needs no observer", order: { workType: "patrol" }, crew: [["o", "j1", "lead"]], expected: [] },

@@ -27,7 +27,7 @@ const cases: Case[] = [
     records: [["2027-04-05T08:00", "2027-04-06T00:00"]],
     orders: [["o", { start: "2027-04-06T07:00", end: "2027-04-06T15:00" }]],
     expected: ["o/w/block"],
-    message: /31 h stretch \(2027-04-05 08:00 to 2027-04-06 15:00\) without 8 h rest; the limit is 16 h/,
+    message: /31 h stretch \(5 April 2027 08:00 to 6 April 2027 15:00\) without 8 h rest; the limit is 16 h/,
   },
   {
     name: "common practice: 16 h day, exactly 8 h off, then an 8 h order is clear",

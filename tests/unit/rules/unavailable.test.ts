@@ -27,6 +27,6 @@ describe("UNAVAILABLE", () => {
   it("availability: the message names the reason and the local times", () => {
     const w = worker("w", "journeyman", { name: "Ines Kesley", unavailable: [["2027-04-06T13:30", "2027-04-06T17:00", "training"]] });
     const [f] = run(unavailable, day([w], [order("o")], [["o", "w", "lead"]]));
-    expect(f.message).toBe("Ines Kesley (w) is unavailable during this order (training 2027-04-06 13:30 to 2027-04-06 17:00). Assign someone else.");
+    expect(f.message).toBe("Ines Kesley is unavailable during this order (training 6 April 2027 13:30 to 17:00). Assign someone else.");
   });
 });
