@@ -1,11 +1,13 @@
 import { randomInt } from "node:crypto";
 import type { Knex } from "knex";
 import { ApiError } from "@/lib/api/http";
+import { withConflictRetry } from "@/lib/db";
 import { findingsForOrders } from "@/lib/rules/engine";
 import type { Finding } from "@/lib/rules/types";
 import { audit, type Actor } from "./audit";
 import { buildSnapshot, crewHash, liveAssignments, orderQuery, type OrderRow } from "./board";
 import { refreshBriefingState } from "./briefings";
+import { bumpWorkers } from "./booking";
 import { boardEvent } from "./events";
 
 // Assignment writes. Each runs in one READ COMMITTED transaction that locks the orders it
@@ -55,7 +57,13 @@ async function lockOrders(trx: Knex.Transaction, organisationId: number, ids: nu
   return new Map(rows.map((r) => [r.id as number, r]));
 }
 
+/**
+ * Locks the worker by bumping their booking_seq (a write, not only FOR UPDATE: on a Galera
+ * cluster a lock holds only on its own node, and two placements of one person on two nodes
+ * must write the same row for certification to refuse the second; lib/data/booking.ts).
+ */
 async function lockWorker(trx: Knex.Transaction, organisationId: number, workerId: number) {
+  await bumpWorkers(trx, [workerId]);
   const w = await trx("workers").where({ id: workerId }).forUpdate().first();
   if (!w || w.organisation_id !== organisationId) {
     throw new ApiError(422, "Invalid workerId: no such worker.", { issues: [{ field: "workerId", message: "No such worker" }] });
@@ -141,17 +149,8 @@ async function crewChanged(trx: Knex.Transaction, orderId: number) {
   return { hash, lapsed };
 }
 
-async function withRetry<T>(fn: () => Promise<T>): Promise<T> {
-  for (let attempt = 0; ; attempt++) {
-    try {
-      return await fn();
-    } catch (err) {
-      const code = (err as { code?: string }).code;
-      if ((code === "ER_LOCK_DEADLOCK" || code === "ER_LOCK_WAIT_TIMEOUT") && attempt < 3) continue;
-      throw err;
-    }
-  }
-}
+/** Deadlocks and Galera certification failures: retried with jitter, counted, then 409/503. */
+const withRetry = <T>(fn: () => Promise<T>) => withConflictRetry(fn, "assignment");
 
 export interface WriteResult {
   assignmentId: number | null;

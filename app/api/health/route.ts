@@ -1,15 +1,22 @@
-import { db, isDbUnavailable } from "@/lib/db";
+import { db, dbStats, isDbUnavailable } from "@/lib/db";
 import { errorResponse, json } from "@/lib/api/http";
 
 export const dynamic = "force-dynamic";
 
 // Public: load balancers and the scripts poll it. A real query, so a dead database shows.
-export async function GET() {
+// `?stats=1` adds which database port answered (scaled out: DB_HOSTS) and this instance's
+// counters: failovers, conflict retries and give-ups, statement time-outs.
+export async function GET(req: Request) {
+  const withStats = new URL(req.url).searchParams.get("stats") === "1";
+  const counters = () => {
+    const { failovers, conflictRetries, conflictsGivenUp, statementTimeouts, nodeFailures } = dbStats();
+    return { failovers, conflictRetries, conflictsGivenUp, statementTimeouts, nodeFailures };
+  };
   try {
-    await db().raw("select 1 as ok");
-    return json({ db: "ok" });
+    const [rows] = (await db().raw("select @@port as port")) as unknown as [{ port: number }[]];
+    return json(withStats ? { db: "ok", port: Number(rows[0]?.port), ...counters() } : { db: "ok" });
   } catch (err) {
-    if (isDbUnavailable(err)) return json({ db: "down", error: "The database is not reachable." }, 503);
+    if (isDbUnavailable(err)) return json({ db: "down", error: "The database is not reachable.", ...(withStats ? counters() : {}) }, 503);
     return errorResponse(err);
   }
 }
