@@ -2,6 +2,7 @@
 // Unknown fields are ignored; missing or ill-typed required fields are errors naming the path.
 
 import { z } from "zod";
+import { equipmentSchemas, toEquipment, toGear, toSiteFields } from "./equipment-input";
 import { epochToZonedDate, isIsoDate, isValidTimeZone, isWallTime, zonedWallTimeToEpoch } from "./time";
 import {
   CLASSIFICATIONS,
@@ -40,6 +41,8 @@ const formatError = (format: string) => (iss: { input?: unknown }) =>
 const wallTime = z.string({ error: formatError(TIME_FORMAT) }).refine(isWallTime, { error: formatError(TIME_FORMAT) });
 const isoDate = z.string({ error: formatError(DATE_FORMAT) }).refine(isIsoDate, { error: formatError(DATE_FORMAT) });
 const text = z.string();
+// Equipment, gear and field figures (CREW-CHECK.md, all optional): see equipment-input.ts.
+const equip = equipmentSchemas(isoDate);
 const level = z.enum(["block", "warn"]);
 
 const levelsShape = Object.fromEntries(RULE_CODES.map((c) => [c, level.optional()])) as Record<
@@ -62,6 +65,7 @@ const workerSchema = z.object({
   credentials: z.array(z.object({ type: text.min(1), expiresOn: isoDate.nullable() })),
   unavailable: z.array(z.object({ from: wallTime, to: wallTime, reason: text })).default([]),
   timeRecords: z.array(z.object({ start: wallTime, end: wallTime })).default([]),
+  ...equip.worker,
 });
 
 const workOrderSchema = z.object({
@@ -81,6 +85,7 @@ const workOrderSchema = z.object({
   shifts: z.array(z.object({ start: wallTime, end: wallTime })).optional(),
   digs: z.boolean().default(false),
   locate: z.object({ ticket: text.min(1), validThrough: isoDate }).nullable().default(null),
+  ...equip.workOrder,
 });
 
 export const dayInputSchema = z.object({
@@ -91,6 +96,7 @@ export const dayInputSchema = z.object({
   workers: z.array(workerSchema),
   workOrders: z.array(workOrderSchema),
   assignments: z.array(z.object({ workOrderId: text, workerId: text, position: z.enum(POSITIONS) })),
+  ...equip.day,
 });
 
 export type DayInput = z.input<typeof dayInputSchema>;
@@ -162,6 +168,7 @@ export function parseDayInput(json: unknown): ParseResult {
         reason: u.reason,
       })),
       timeRecords: w.timeRecords.map((r, j) => interval(r.start, r.end, `workers[${i}].timeRecords[${j}]`, "start", "end")),
+      ...toGear(w.gear),
     };
   });
 
@@ -194,6 +201,7 @@ export function parseDayInput(json: unknown): ParseResult {
       ...(shifts ? { shifts } : {}),
       digs: o.digs,
       locate: o.locate ? { ticket: o.locate.ticket, validThrough: o.locate.validThrough } : null,
+      ...toSiteFields(o),
     };
   });
 
@@ -203,6 +211,8 @@ export function parseDayInput(json: unknown): ParseResult {
     }
     if (!workerIds.has(a.workerId)) errors.push(`assignments[${i}].workerId: unknown worker ${JSON.stringify(a.workerId)}`);
   });
+
+  const equipment = toEquipment(input, orderIds, errors);
 
   if (errors.length > 0) return { ok: false, errors };
 
@@ -228,6 +238,7 @@ export function parseDayInput(json: unknown): ParseResult {
       workers,
       workOrders,
       assignments: input.assignments.map((a) => ({ workOrderId: a.workOrderId, workerId: a.workerId, position: a.position })),
+      ...equipment,
     },
   };
 }

@@ -32,7 +32,7 @@ describe("crew-check CLI", () => {
     expect(r.stderr).toBe("");
     expect(r.status).toBe(0);
     const out = JSON.parse(r.stdout);
-    expect(Object.keys(out)).toEqual(["findings", "summary"]);
+    expect(Object.keys(out)).toEqual(["findings", "summary", "orders"]);
     for (const f of out.findings) expect(Object.keys(f)).toEqual(["rule", "level", "workOrderId", "workerId", "message", "source"]);
     // Corrections 1: the order's own minimum cites the crew template; the two-worker part cites (l)(2)(i)(A).
     const own = out.findings.find((f: { message: string }) => f.message.startsWith("This order's crew template asks for at least 3 people on site; 1 assigned."));
@@ -63,7 +63,7 @@ describe("crew-check CLI", () => {
   it("exits 0 with no findings for a clean day", () => {
     const r = crewCheck(["-"], JSON.stringify({ timezone: "UTC", workers: [], workOrders: [], assignments: [] }));
     expect(r.status).toBe(0);
-    expect(JSON.parse(r.stdout)).toEqual({ findings: [], summary: { block: 0, warn: 0 } });
+    expect(JSON.parse(r.stdout)).toEqual({ findings: [], summary: { block: 0, warn: 0 }, orders: [] });
   });
 
   it("invalid input: exit 2, the path on stderr, nothing on stdout", () => {
