@@ -16,6 +16,10 @@ const csp = [
   "object-src 'none'",
 ].join("; ");
 
+// API responses (JSON, CSV, PDF, evidence files) are never a page: nothing runs, nothing loads,
+// and a file opened directly is sandboxed (no script, no same-origin access).
+const downloadCsp = "default-src 'none'; sandbox; frame-ancestors 'none'";
+
 /** @type {import('next').NextConfig} */
 const nextConfig = {
   // A second build directory lets a developer run a dev server beside a production build.
@@ -24,11 +28,17 @@ const nextConfig = {
   reactStrictMode: true,
   serverExternalPackages: ["knex", "mysql2", "twilio", "nodemailer", "highs", "bcryptjs"],
   async headers() {
+    // One Content-Security-Policy per response, never two that replace each other: pages and
+    // next-auth's own routes get the app's policy; every other API route (JSON and file
+    // downloads) gets the download policy, which is also what the file routes set themselves
+    // (issue 15, finding 14: the global policy used to replace a download's sandbox).
     return [
+      { source: "/:path((?!api/).*)", headers: [{ key: "Content-Security-Policy", value: csp }] },
+      { source: "/api/auth/:path*", headers: [{ key: "Content-Security-Policy", value: csp }] },
+      { source: "/api/:path((?!auth/).*)", headers: [{ key: "Content-Security-Policy", value: downloadCsp }] },
       {
         source: "/:path*",
         headers: [
-          { key: "Content-Security-Policy", value: csp },
           { key: "X-Content-Type-Options", value: "nosniff" },
           { key: "X-Frame-Options", value: "DENY" },
           { key: "Referrer-Policy", value: "strict-origin-when-cross-origin" },

@@ -1,10 +1,12 @@
 import Link from "next/link";
+import { safePath } from "@/lib/auth/options";
 
 export const metadata = { title: "Not allowed" };
 
 export default async function Forbidden({ searchParams }: { searchParams: Promise<{ from?: string }> }) {
   const { from } = await searchParams;
-  const back = from && from.startsWith("/") && !from.startsWith("//") ? from : "/";
+  // Only a path on this site: "/\\host" and "//host" leave it (issue 15, finding 13).
+  const back = safePath(from) ?? "/";
   return (
     <main className="mx-auto max-w-md p-8 text-center">
       <p className="text-xs font-bold uppercase tracking-widest text-block">✖ Not allowed</p>

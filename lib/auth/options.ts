@@ -3,7 +3,9 @@ import type { NextAuthOptions } from "next-auth";
 import CredentialsProvider from "next-auth/providers/credentials";
 import { z } from "zod";
 import { db } from "@/lib/db";
-import { recordSignIn, signInBlocked, SIGN_IN_LIMIT } from "./rate-limit";
+import { clientAddress } from "./client-address";
+import { recordSignIn, signInGate } from "./rate-limit";
+import { createSession, liveSessionUser, revokeSession, SESSION_MAX_AGE_SECONDS } from "./sessions";
 import type { Role } from "./roles";
 
 export const signInSchema = z.object({
@@ -12,16 +14,11 @@ export const signInSchema = z.object({
 });
 
 export const WRONG_CREDENTIALS = "E-mail or password is not right.";
-export const TOO_MANY = `Too many failed sign-ins. Wait ${SIGN_IN_LIMIT.windowMinutes} minutes and try again, or ask an admin.`;
+export const TOO_MANY = (seconds: number) =>
+  `Too many failed sign-ins from this address. Wait ${seconds < 90 ? `${seconds} seconds` : `${Math.ceil(seconds / 60)} minutes`} and try again, or ask an admin to reset your password.`;
 
 let dummy: string | undefined;
 const dummyHash = () => (dummy ??= bcrypt.hashSync("no-such-account", 10));
-
-function clientIp(headers: Record<string, string | string[] | undefined> | undefined) {
-  const fwd = headers?.["x-forwarded-for"];
-  const first = (Array.isArray(fwd) ? fwd[0] : fwd)?.split(",")[0]?.trim();
-  return (first || (headers?.["x-real-ip"] as string) || "local").slice(0, 64);
-}
 
 /**
  * Session and CSRF cookies are always HttpOnly and SameSite=Lax (next-auth's defaults); they are
@@ -32,10 +29,16 @@ function clientIp(headers: Record<string, string | string[] | undefined> | undef
 export const useSecureCookies = (process.env.NEXTAUTH_URL ?? "").startsWith("https://");
 
 export const authOptions: NextAuthOptions = {
-  session: { strategy: "jwt", maxAge: 12 * 60 * 60 },
+  session: { strategy: "jwt", maxAge: SESSION_MAX_AGE_SECONDS },
   useSecureCookies,
   pages: { signIn: "/login" },
   secret: process.env.NEXTAUTH_SECRET,
+  events: {
+    // Sign-out ends this session on the server too: the old token is refused from now on.
+    async signOut({ token }) {
+      if (token && typeof token.sid === "string") await revokeSession(db(), token.sid, "sign_out");
+    },
+  },
   providers: [
     CredentialsProvider({
       name: "Gaffline",
@@ -44,9 +47,11 @@ export const authOptions: NextAuthOptions = {
         const parsed = signInSchema.safeParse(credentials ?? {});
         if (!parsed.success) throw new Error(WRONG_CREDENTIALS);
         const { email, password } = parsed.data;
-        const ip = clientIp(req?.headers as Record<string, string>);
+        const ip = clientAddress(req?.headers as Record<string, string>);
         const conn = db();
-        if (await signInBlocked(conn, email, ip)) throw new Error(TOO_MANY);
+        const gate = await signInGate(conn, email, ip);
+        if (!gate.ok) throw new Error(TOO_MANY(gate.retryAfterSeconds));
+        if (gate.holdMs) await new Promise((r) => setTimeout(r, gate.holdMs));
         const user = await conn("users").where({ email, active: true }).first();
         // Compare against a fixed hash when the account is unknown, so timing does not tell.
         const ok = await bcrypt.compare(password, user?.password_hash ?? dummyHash());
@@ -65,9 +70,16 @@ export const authOptions: NextAuthOptions = {
     }),
   ],
   callbacks: {
+    // Only same-origin paths (issue 15, finding 13/15): anything else, or a URL that does not
+    // parse, goes to the start page; never an exception.
+    async redirect({ url, baseUrl }) {
+      return safeRedirect(url, baseUrl);
+    },
     async jwt({ token, user }) {
       if (user) {
         const u = user as unknown as SessionUser;
+        // A server-side session for this sign-in (lib/auth/sessions.ts).
+        token.sid = await createSession(db(), Number(u.id));
         token.uid = Number(u.id);
         token.role = u.role;
         token.workerId = u.workerId;
@@ -77,19 +89,57 @@ export const authOptions: NextAuthOptions = {
       return token;
     },
     async session({ session, token }) {
+      // Checked on every request: a revoked or expired session, a deactivated user or a role
+      // that changed since sign-in leave no user in the session (requireRole answers 401).
+      const live =
+        typeof token.sid === "string" && typeof token.uid === "number"
+          ? await liveSessionUser(db(), token.sid, token.uid, String(token.role))
+          : null;
+      if (!live) return { expires: session.expires } as typeof session;
       session.user = {
         id: token.uid as number,
         name: token.name ?? "",
         email: token.email ?? "",
-        role: token.role as Role,
-        workerId: (token.workerId as number | null) ?? null,
-        organisationId: token.organisationId as number,
-        homeYardId: (token.homeYardId as number | null) ?? null,
+        role: live.role,
+        workerId: live.workerId,
+        organisationId: live.organisationId,
+        homeYardId: live.homeYardId,
       } as SessionUser as never;
       return session;
     },
   },
 };
+
+/**
+ * Where a redirect may go: a path on this site ("/board", never "//host" or "/\\host"), or a
+ * full URL of this very origin. Everything else, malformed included, is the base URL.
+ */
+export function safeRedirect(url: string, baseUrl: string): string {
+  const path = safePath(url);
+  if (path) return baseUrl.replace(/\/$/, "") + path;
+  try {
+    const u = new URL(url);
+    if (u.origin === new URL(baseUrl).origin) return u.toString();
+  } catch {
+    /* not a URL */
+  }
+  return baseUrl;
+}
+
+/** A same-origin path, or null: starts with one "/", no "//" or "/\\" (browsers read "\\" as "/"), no control characters. */
+export function safePath(p: string | null | undefined): string | null {
+  if (typeof p !== "string" || p.length > 2000) return null;
+  if (!p.startsWith("/") || p.startsWith("//") || p.startsWith("/\\")) return null;
+  if (/[\u0000-\u001f\u007f\\]/.test(p)) return null;
+  try {
+    // Resolved against a dummy origin, it must stay on it.
+    const u = new URL(p, "http://same.invalid");
+    if (u.origin !== "http://same.invalid") return null;
+    return u.pathname + u.search + u.hash;
+  } catch {
+    return null;
+  }
+}
 
 export interface SessionUser {
   id: number;

@@ -1,6 +1,7 @@
 import { getServerSession } from "next-auth";
 import { redirect } from "next/navigation";
 import { ApiError } from "@/lib/api/http";
+import { db } from "@/lib/db";
 import { authOptions, type SessionUser } from "./options";
 import { START_PAGE, type Role } from "./roles";
 
@@ -30,4 +31,54 @@ export async function requirePageRole(...roles: Role[]): Promise<SessionUser> {
   if (!user) redirect("/login");
   if (roles.length && !roles.includes(user.role)) redirect(`/forbidden?from=${START_PAGE[user.role]}`);
   return user;
+}
+
+// --- Yard scope (issue 15, finding 9) ----------------------------------------------------------
+// A dispatcher edits only the yards assigned to them (user_yards); supervisors and admins edit
+// every yard. Any dispatcher may READ another yard's board (to borrow a crew), but not the
+// contact details (phone, e-mail) or message threads of another yard's workers.
+//
+// In a route: `await requireYardAccess(user, yardId, "edit")` before a write that touches a
+// yard's orders, assignments, overrides, sends, leave, time or rotations; "contact" before
+// showing a worker's phone/e-mail or texts; "read" for the board. 403 naming the yard.
+
+export type YardAccess = "edit" | "read" | "contact";
+
+const ALL_YARDS: Role[] = ["supervisor", "admin"];
+
+/** The yard ids this user may edit, or "all". */
+export async function editableYards(user: SessionUser): Promise<number[] | "all"> {
+  if (ALL_YARDS.includes(user.role)) return "all";
+  if (user.role !== "dispatcher") return [];
+  const rows = await db()("user_yards").where({ user_id: user.id }).pluck("yard_id");
+  return rows.map(Number);
+}
+
+/** Whether the user may see phone, e-mail and texts of a yard's workers. */
+export async function contactYards(user: SessionUser): Promise<number[] | "all"> {
+  if (user.role === "hr" || ALL_YARDS.includes(user.role)) return "all";
+  if (user.role === "dispatcher") return editableYards(user);
+  return [];
+}
+
+export async function canAccessYard(user: SessionUser, yardId: number, mode: YardAccess): Promise<boolean> {
+  if (mode === "read") return true;
+  const yards = mode === "edit" ? await editableYards(user) : await contactYards(user);
+  return yards === "all" || yards.includes(Number(yardId));
+}
+
+/** 403 unless the user may `mode` the yard (after requireRole). */
+export async function requireYardAccess(user: SessionUser, yardId: number | null | undefined, mode: YardAccess): Promise<void> {
+  if (yardId === null || yardId === undefined) return;
+  if (await canAccessYard(user, yardId, mode)) return;
+  const yard = await db()("yards").where({ id: yardId }).first("name");
+  const what = mode === "edit" ? "change" : "see contact details or messages of";
+  throw new ApiError(403, `You cannot ${what} ${yard?.name ?? "that"} yard: it is not one of your yards.`, { reason: "yard_scope", yardId });
+}
+
+/** Each yard id once, checked in turn (a write touching two yards needs both). */
+export async function requireYardsAccess(user: SessionUser, yardIds: Iterable<number | null | undefined>, mode: YardAccess): Promise<void> {
+  for (const id of new Set([...yardIds].filter((v): v is number => v !== null && v !== undefined).map(Number))) {
+    await requireYardAccess(user, id, mode);
+  }
 }

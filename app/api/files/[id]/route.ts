@@ -25,7 +25,7 @@ export const GET = handler<P>(async (_req, ctx) => {
       "content-disposition": contentDisposition(row.original_name),
       "x-content-type-options": "nosniff",
       "cache-control": "private, no-store",
-      "content-security-policy": "default-src 'none'; sandbox",
+      "content-security-policy": "default-src 'none'; sandbox; frame-ancestors 'none'",
     },
   });
 });

@@ -31,7 +31,7 @@ export const GET = handler<P>(async (_req, ctx) => {
       "content-disposition": contentDisposition(row.original_name, inline ? "inline" : "attachment"),
       "x-content-type-options": "nosniff",
       "cache-control": "private, no-store",
-      "content-security-policy": "default-src 'none'; sandbox",
+      "content-security-policy": "default-src 'none'; sandbox; frame-ancestors 'none'",
     },
   });
 });
