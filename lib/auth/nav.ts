@@ -14,6 +14,7 @@ export const NAV: NavItem[] = [
   { href: "/board", label: "Board", roles: ["dispatcher", "supervisor", "admin"] },
   { href: "/me", label: "My week", roles: ["lineworker"] },
   { href: "/orders", label: "Orders", roles: ["dispatcher", "supervisor", "admin"] },
+  { href: "/equipment", label: "Equipment", roles: ["dispatcher", "supervisor", "admin", "hr", "lineworker"] },
   { href: "/rotations", label: "Rotations", roles: ["dispatcher", "supervisor", "hr"] },
   { href: "/messages", label: "Messages", roles: ["dispatcher", "supervisor"] },
   { href: "/credentials", label: "Credentials", roles: ["hr", "admin", "supervisor"] },

@@ -1,5 +1,13 @@
 // The board's payload, shared by the route handler and the client. Plain JSON only.
 import type { DaySnapshot, Finding, Position } from "@/lib/rules/types";
+import type { Equipment } from "@/lib/equipment/model";
+
+export interface EquipmentBooking {
+  id: number;
+  workOrderId: number;
+  equipmentId: number;
+  version: number;
+}
 
 export type AssignmentStatus = "draft" | "sent" | "delivered" | "confirmed" | "declined" | "removed";
 
@@ -103,6 +111,9 @@ export interface BoardPayload {
   onCall: { rotationName: string; workerId: number; workerName: string; from: string; to: string }[];
   policy: { minRestHours: number; maxShiftHours: number; credentialWarnDays: number; replyDeadlineHours: number };
   cursor: number;
+  /** Equipment (issue 16): the organisation's trucks and trailers, and the bookings on this board's orders. */
+  equipment?: Equipment[];
+  equipmentBookings?: EquipmentBooking[];
   fakesEnabled: boolean;
   generatedAt: string;
 }

@@ -6,6 +6,7 @@ import { findingsForOrders } from "@/lib/rules/engine";
 import { epochToZonedDate, zonedWallTimeToEpoch } from "@/lib/rules/time";
 import type { Assignment, DaySnapshot, Finding, Position, Worker, WorkOrder, WorkType } from "@/lib/rules/types";
 import { locateWarning } from "@/lib/orders/locate";
+import { attachEquipment, boardEquipment } from "@/lib/equipment/snapshot";
 import { latestEventId } from "./events";
 import { getPolicy } from "./policies";
 import { addDays, type Yard } from "./yards";
@@ -218,13 +219,13 @@ export async function buildSnapshot(
   if (workerIds.length === 0) {
     return {
       policy,
-      snapshot: {
+      snapshot: await attachEquipment(db, organisationId, opts.orders.map((o) => o.id), from, to, {
         timezone,
         policy: policy.rules,
         workers: [],
         workOrders: opts.orders.map((o) => toRuleOrder(o, shiftsOf)),
         assignments: [],
-      } satisfies DaySnapshot,
+      } satisfies DaySnapshot, ruleOrdersOf(db)),
       workerRows: [] as Record<string, unknown>[],
       contextAssignments: [] as LiveAssignment[],
     };
@@ -300,7 +301,13 @@ export async function buildSnapshot(
       (a): Assignment => ({ workOrderId: String(a.work_order_id), workerId: String(a.worker_id), position: a.position }),
     ),
   };
+  await attachEquipment(db, organisationId, opts.orders.map((o) => o.id), from, to, snapshot, ruleOrdersOf(db));
   return { policy, snapshot, workerRows, contextAssignments };
+}
+
+/** Orders as the rules read them, by id (the equipment's context orders; lib/equipment/snapshot.ts). */
+function ruleOrdersOf(db: Knex | Knex.Transaction) {
+  return async (ids: number[]) => ((await orderQuery(db).whereIn("o.id", ids)) as OrderRow[]).map((o) => toRuleOrder(o));
 }
 
 function groupBy<T>(rows: T[], key: (r: T) => number) {
@@ -486,6 +493,7 @@ export async function loadBoard(
       replyDeadlineHours: policy.replyDeadlineHours,
     },
     cursor,
+    ...(await boardEquipment(db, organisationId, orderIds)),
     fakesEnabled: process.env.FAKES_ENABLED === "1",
     generatedAt: new Date().toISOString(),
   };

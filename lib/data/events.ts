@@ -12,7 +12,8 @@ export type BoardEventKind =
   | "order"
   | "worker"
   | "availability"
-  | "briefing";
+  | "briefing"
+  | "equipment";
 
 export interface BoardEventInput {
   organisationId: number;

@@ -1,0 +1,17 @@
+import { db } from "@/lib/db";
+import { handler, json, readJson } from "@/lib/api/http";
+import { requireRole } from "@/lib/auth/session";
+import { CAN_DISPATCH } from "@/lib/auth/roles";
+import { bookEquipment } from "@/lib/equipment/data";
+import { equipmentAssignSchema } from "@/lib/equipment/model";
+import { findingsAfterEquipment } from "@/lib/equipment/board";
+
+// POST: put a truck on a work order (the board's drop). 409 when it is on an overlapping
+// order, 422 when it is out of service.
+export const POST = handler(async (req) => {
+  const user = await requireRole(...CAN_DISPATCH);
+  const input = await readJson(req, equipmentAssignSchema);
+  const result = await bookEquipment(db(), user, input);
+  const recheck = await findingsAfterEquipment(db(), user.organisationId, result.orderIds, result.equipmentIds);
+  return json({ ...result, recheck }, 201);
+});
