@@ -4,7 +4,7 @@
 
 export type YardCode = "NOR" | "MES";
 export type Classification = "journeyman" | "apprentice" | "ground_hand" | "operator" | "crew_lead";
-export type PositionName = "climber" | "observer" | "operator" | "ground" | "lead" | "driver";
+export type PositionName = "climber" | "aerial" | "observer" | "operator" | "ground" | "lead" | "driver";
 export type QualCode =
   | "climbing"
   | "first_aid_cpr"
@@ -13,7 +13,8 @@ export type QualCode =
   | "equipment_operator"
   | "cdl_a"
   | "cdl_b"
-  | "traffic_control";
+  | "traffic_control"
+  | "qualified_electrical";
 
 export const ORGANISATION = {
   name: "Cedar Prairie Electric Cooperative",
@@ -53,6 +54,11 @@ export const QUALIFICATION_TYPES: {
   { code: "cdl_a", name: "CDL class A", renewalMonths: 48, warnDays: 60, needsEvidence: true },
   { code: "cdl_b", name: "CDL class B", renewalMonths: 48, warnDays: 60, needsEvidence: true },
   { code: "traffic_control", name: "Traffic control / flagger", renewalMonths: 36, warnDays: 30, needsEvidence: false },
+  // An equipment operator counts toward the two-worker minimum only when the employer has
+  // trained and designated them a qualified electrical worker (OSHA letter of 1994-11-08;
+  // ../shared/CREW-CHECK.md, Corrections 1). Journeymen and crew leads are qualified by their
+  // classification. The 36-month re-check is this cooperative's policy.
+  { code: "qualified_electrical", name: "Qualified electrical worker", renewalMonths: 36, warnDays: 30, needsEvidence: true },
 ];
 
 export const WORK_TYPES: {
@@ -65,10 +71,22 @@ export const WORK_TYPES: {
 }[] = [
   { code: "pole_climb", name: "Climbing transformer change-out", ruleType: "pole_climb", minCrew: 3, digs: false, positions: ["climber", "observer", "ground", "lead"] },
   { code: "pole_set", name: "Pole set with digger derrick", ruleType: "digger_derrick", minCrew: 4, digs: true, positions: ["operator", "observer", "ground", "lead"] },
-  { code: "bucket", name: "Bucket truck work", ruleType: "bucket", minCrew: 2, digs: false, positions: ["lead", "ground"] },
+  // Bucket work: one aloft in the bucket, one on the ground who can bring the bucket down
+  // (lower controls) and watch the clearance, and the lead.
+  { code: "bucket", name: "Bucket truck work", ruleType: "bucket", minCrew: 3, digs: false, positions: ["lead", "aerial", "ground"] },
   { code: "patrol", name: "Line patrol", ruleType: "patrol", minCrew: 1, digs: false, positions: ["lead"] },
-  { code: "storm", name: "Storm restoration", ruleType: "storm", minCrew: 2, digs: false, positions: ["lead", "ground"] },
+  { code: "storm", name: "Storm restoration / trouble", ruleType: "storm", minCrew: 3, digs: false, positions: ["lead", "aerial", "ground"] },
   { code: "anchor", name: "Anchor and guy install", ruleType: "digger_derrick", minCrew: 3, digs: true, positions: ["operator", "observer", "lead"] },
+  // Changing out a pole: the derrick sets the new pole beside the old, a lineworker on the new
+  // pole transfers the conductors and hardware, then the old pole comes out.
+  {
+    code: "pole_changeout",
+    name: "Pole change-out (transfer conductors)",
+    ruleType: "digger_derrick",
+    minCrew: 5,
+    digs: true,
+    positions: ["lead", "operator", "observer", "climber", "ground"],
+  },
 ];
 
 /** What each classification normally holds. Ground hands add `extra` per worker. */
@@ -109,14 +127,14 @@ export const WORKERS: DemoWorker[] = [
   { no: "CP-1010", first: "Curtis", last: "Fairbanks", yard: "NOR", cls: "journeyman", role: "short of rest: overnight call-out" },
   { no: "CP-1011", first: "Noah", last: "Feldkamp", yard: "NOR", cls: "journeyman", role: "on approved leave tomorrow" },
   { no: "CP-1012", first: "Andre", last: "Beauchamp", yard: "NOR", cls: "journeyman", role: "climbing lapses within the warning window" },
-  { no: "CP-1013", first: "Kayla", last: "Sorensen", yard: "NOR", cls: "apprentice", role: "observes WO-26-0101" },
+  { no: "CP-1013", first: "Kayla", last: "Sorensen", yard: "NOR", cls: "apprentice", extra: ["pole_top_rescue"], role: "observes WO-26-0101; holds pole-top rescue" },
   { no: "CP-1014", first: "Mateo", last: "Quintana", yard: "NOR", cls: "apprentice" },
   { no: "CP-1015", first: "Tyler", last: "Nakamura", yard: "NOR", cls: "apprentice", noPhone: true, role: "no phone on file" },
   { no: "CP-1016", first: "Bethany", last: "Greer", yard: "NOR", cls: "apprentice", role: "first aid / CPR lapsed" },
-  { no: "CP-1017", first: "Roy", last: "Delacroix", yard: "NOR", cls: "operator", role: "operates WO-26-0103" },
+  { no: "CP-1017", first: "Roy", last: "Delacroix", yard: "NOR", cls: "operator", extra: ["qualified_electrical"], role: "operates WO-26-0103; a qualified electrical worker" },
   { no: "CP-1018", first: "Gus", last: "Halvorsen", yard: "NOR", cls: "operator", role: "leave requested next week (pending)" },
-  { no: "CP-1019", first: "Denise", last: "Abernathy", yard: "NOR", cls: "operator" },
-  { no: "CP-1020", first: "Wendell", last: "Pike", yard: "NOR", cls: "operator", role: "CDL class A lapses soon" },
+  { no: "CP-1019", first: "Denise", last: "Abernathy", yard: "NOR", cls: "operator", role: "operator only: not a qualified electrical worker" },
+  { no: "CP-1020", first: "Wendell", last: "Pike", yard: "NOR", cls: "operator", extra: ["qualified_electrical"], role: "CDL class A lapses soon; a qualified electrical worker" },
   { no: "CP-1021", first: "Luis", last: "Carrasco", yard: "NOR", cls: "ground_hand", extra: ["cdl_b", "aerial_rescue"], role: "ground on WO-26-0101" },
   { no: "CP-1022", first: "Jamal", last: "Whitaker", yard: "NOR", cls: "ground_hand", smsOptOut: true, extra: ["aerial_rescue"], role: "opted out of texts" },
   { no: "CP-1023", first: "Cody", last: "Brandvold", yard: "NOR", cls: "ground_hand", noEmail: true, extra: ["cdl_b"], role: "no e-mail on file" },
@@ -131,13 +149,13 @@ export const WORKERS: DemoWorker[] = [
   { no: "CP-2006", first: "Leah", last: "Yazzie", yard: "MES", cls: "journeyman", role: "pole-top rescue lapses soon" },
   { no: "CP-2007", first: "Darnell", last: "Fisk", yard: "MES", cls: "journeyman", role: "first aid / CPR lapses soon" },
   { no: "CP-2008", first: "Colby", last: "Arnett", yard: "MES", cls: "journeyman", role: "1-hour call-out overnight, still rested; patrols WO-26-0112" },
-  { no: "CP-2009", first: "Sierra", last: "Lujan", yard: "MES", cls: "apprentice", role: "observes WO-26-0109" },
+  { no: "CP-2009", first: "Sierra", last: "Lujan", yard: "MES", cls: "apprentice", extra: ["pole_top_rescue"], role: "observes WO-26-0109; holds pole-top rescue" },
   { no: "CP-2010", first: "Dominic", last: "Pruett", yard: "MES", cls: "apprentice" },
   { no: "CP-2011", first: "Ava", last: "Castellano", yard: "MES", cls: "apprentice" },
-  { no: "CP-2012", first: "Travis", last: "Enright", yard: "MES", cls: "operator" },
-  { no: "CP-2013", first: "Marisol", last: "Vigil", yard: "MES", cls: "operator", smsOptOut: true, role: "opted out of texts" },
+  { no: "CP-2012", first: "Travis", last: "Enright", yard: "MES", cls: "operator", extra: ["qualified_electrical"], role: "a qualified electrical worker" },
+  { no: "CP-2013", first: "Marisol", last: "Vigil", yard: "MES", cls: "operator", smsOptOut: true, role: "opted out of texts; operator only" },
   { no: "CP-2014", first: "Eli", last: "Westbrook", yard: "MES", cls: "ground_hand", extra: ["aerial_rescue", "cdl_b"], role: "ground on WO-26-0109" },
-  { no: "CP-2015", first: "Ruben", last: "Archuleta", yard: "MES", cls: "ground_hand", noEmail: true, extra: ["cdl_b"] },
+  { no: "CP-2015", first: "Ruben", last: "Archuleta", yard: "MES", cls: "ground_hand", noEmail: true, extra: ["cdl_b", "aerial_rescue"], role: "ground on WO-26-0113" },
   { no: "CP-2016", first: "Jada", last: "Holloway", yard: "MES", cls: "ground_hand", noPhone: true, role: "no phone; traffic control lapsed" },
 ];
 
@@ -167,9 +185,23 @@ export interface DemoOrder {
   title: string;
   address: string;
   structureNo: string | null;
-  start: string; // HH:mm tomorrow, yard-local
-  end: string; // HH:mm tomorrow, yard-local
+  start: string; // HH:mm on the start day, yard-local
+  end: string; // HH:mm on the end day (the start day, or the next when it is earlier), yard-local
+  /** The start day in days from tomorrow: -1 is today (tonight's trouble call). Default 0. */
+  dayOffset?: number;
+  /** The end day in days after the start day, for multi-day orders. */
+  endDayOffset?: number;
+  /** A multi-day order's shifts: day in days after the start day, wall clock in the yard's zone. */
+  shifts?: { day: number; start: string; end: string }[];
+  /** Voltage of the work: phase to phase, or to ground for a single-phase tap (`phases: 1`). */
   voltageKv: number;
+  /** 1 for a single-phase tap off a wye feeder; its system voltage (phase to phase) in systemKv. */
+  phases?: 1 | 3;
+  systemKv?: number;
+  /** De-energized work beside live parts: their voltage (CREW-CHECK.md, Corrections 2). */
+  nearEnergizedKv?: number;
+  /** Positions when they differ from the work type's crew template. */
+  positions?: PositionName[];
   priority: number;
   energized?: boolean;
   emergency?: boolean;
@@ -195,23 +227,23 @@ export const ORDERS: DemoOrder[] = [
     number: "WO-26-0102", yard: "NOR", workType: "pole_climb",
     title: "Change out 50 kVA transformer, pole N-2204",
     address: "640 Harrow Flats Lane, Cedar Prairie", structureNo: "N-2204",
-    start: "07:00", end: "15:30", voltageKv: 7.2, priority: 3,
+    start: "07:00", end: "15:30", voltageKv: 7.2, phases: 1, systemKv: 12.47, priority: 3,
     notes: "Back-lot pole, no truck access — climb only.",
   },
   {
-    number: "WO-26-0103", yard: "NOR", workType: "pole_set",
-    title: "Replace rejected pole N-0931 with 45 ft class 3",
+    number: "WO-26-0103", yard: "NOR", workType: "pole_changeout",
+    title: "Change out rejected pole N-0931 with 45 ft class 3",
     address: "County Road 14 at Millrace Creek", structureNo: "N-0931",
     start: "07:00", end: "15:30", voltageKv: 12.47, priority: 2,
     locate: { ticket: "LT-4471-2093", validThroughIn: 6 },
-    notes: "Pole failed sound test and dig at the ground line last week.",
+    notes: "Pole failed sound test and dig at the ground line last week. Set the new pole alongside, transfer the three-phase conductors and the crossarm, then pull the old pole.",
     crew: { operator: "CP-1017", lead: "CP-1002" },
   },
   {
     number: "WO-26-0104", yard: "NOR", workType: "pole_set",
     title: "Set 40 ft pole for new service, N-3310",
     address: "3310 Sorghum Mill Road, Cedar Prairie", structureNo: "N-3310",
-    start: "08:00", end: "14:30", voltageKv: 7.2, priority: 4,
+    start: "08:00", end: "14:30", voltageKv: 7.2, phases: 1, systemKv: 12.47, priority: 4,
     locate: { ticket: "LT-4468-1157", validThroughIn: -1 },
     notes: "Locate ticket runs out today — request a re-mark before digging.",
   },
@@ -230,12 +262,13 @@ export const ORDERS: DemoOrder[] = [
     crew: { lead: "CP-1004" },
   },
   {
+    // Tonight's trouble call, not tomorrow's planned work: it starts this evening.
     number: "WO-26-0107", yard: "NOR", workType: "storm",
-    title: "Storm restoration: primary down on Feeder 4 near N-4420",
+    title: "Trouble call: conductor down on Feeder 4 near N-4420",
     address: "Route 9 at Tallgrass Crossing", structureNo: "N-4420",
-    start: "06:00", end: "14:00", voltageKv: 7.2, priority: 1,
+    dayOffset: -1, start: "19:00", end: "03:00", voltageKv: 12.47, priority: 1,
     emergency: true, crewException: "emergency",
-    notes: "Broken crossarm, conductor on the ground; sheriff's deputy holding the scene.",
+    notes: "Called in this evening: broken crossarm, one phase on the ground across the ditch; sheriff's deputy holding the scene. Treat the wire as energized until it is isolated, tested and grounded; make safe, then repair.",
   },
   {
     number: "WO-26-0108", yard: "NOR", workType: "anchor",
@@ -250,12 +283,12 @@ export const ORDERS: DemoOrder[] = [
     number: "WO-26-0109", yard: "MES", workType: "pole_climb",
     title: "Change out 15 kVA transformer, pole M-0412",
     address: "412 Juniper Wash Road, Quillan Mesa", structureNo: "M-0412",
-    start: "07:00", end: "15:30", voltageKv: 7.2, priority: 2,
+    start: "07:00", end: "15:30", voltageKv: 7.2, phases: 1, systemKv: 12.47, priority: 2,
     crew: { climber: "CP-2004", observer: "CP-2009", ground: "CP-2014", lead: "CP-2001" },
   },
   {
-    number: "WO-26-0110", yard: "MES", workType: "pole_set",
-    title: "Set 45 ft pole to replace woodpecker-damaged M-0588",
+    number: "WO-26-0110", yard: "MES", workType: "pole_changeout",
+    title: "Change out woodpecker-damaged pole M-0588 with a 45 ft pole",
     address: "588 Caprock Canyon Road, Quillan Mesa", structureNo: "M-0588",
     start: "07:00", end: "15:30", voltageKv: 24.9, priority: 3,
     locate: { ticket: "LT-8812-5540", validThroughIn: 4 },
@@ -273,6 +306,34 @@ export const ORDERS: DemoOrder[] = [
     address: "Redrock tap, Mesa Loop Road", structureNo: null,
     start: "07:00", end: "15:00", voltageKv: 24.9, priority: 5,
     crew: { lead: "CP-2008" },
+  },
+  {
+    // A multi-day order with its shifts: the rest rule counts the shifts, not the whole span.
+    // Feeder 5's circuit stays energized on the same poles, so the crew works beside live parts.
+    number: "WO-26-0113", yard: "MES", workType: "bucket",
+    title: "Reconductor Feeder 7 from M-1300 to M-1324 (1/0 ACSR to 336 AAC)",
+    address: "Mesa Loop Road, M-1300 to M-1324", structureNo: "M-1300",
+    start: "07:00", end: "17:30", endDayOffset: 2, voltageKv: 24.9, energized: false, nearEnergizedKv: 24.9, priority: 3,
+    shifts: [
+      { day: 0, start: "07:00", end: "17:30" },
+      { day: 1, start: "07:00", end: "17:30" },
+      { day: 2, start: "07:00", end: "17:30" },
+    ],
+    notes: "Feeder 7 section isolated, tested and grounded each morning; the Feeder 5 circuit on the same poles stays energized. Three days.",
+    crew: { lead: "CP-2007", aerial: "CP-2006", ground: "CP-2015" },
+  },
+  {
+    // Two days of digging whose locate ticket runs out after the first: LOCATE blocks.
+    number: "WO-26-0114", yard: "NOR", workType: "pole_set",
+    title: "Line extension: set three poles for the Hollis Draw lots, N-3401 to N-3403",
+    address: "Hollis Draw Road, Cedar Prairie", structureNo: "N-3401",
+    start: "07:00", end: "15:30", endDayOffset: 1, voltageKv: 7.2, phases: 1, systemKv: 12.47, priority: 4,
+    shifts: [
+      { day: 0, start: "07:00", end: "15:30" },
+      { day: 1, start: "07:00", end: "15:30" },
+    ],
+    locate: { ticket: "LT-4480-2210", validThroughIn: 0 },
+    notes: "New single-phase tap for three lots. The locate ticket covers the first day only: ask for an extension before the second.",
   },
 ];
 
@@ -315,5 +376,7 @@ export const DEMO_FIXTURES = {
     openMesaPoleSet: "WO-26-0110",
     partialMesaBucket: "WO-26-0111",
     mesaPatrol: "WO-26-0112",
+    multiDayReconductor: "WO-26-0113",
+    locateLapsesBeforeLastDay: "WO-26-0114",
   },
 } as const;

@@ -229,17 +229,27 @@ export async function seed(knex: Knex): Promise<void> {
 
     // --- tomorrow's work orders, their positions and the pre-placed crews -------------------
     const orders: Record<string, unknown>[] = [];
+    const shifts: Record<string, unknown>[] = [];
     const positions: Record<string, unknown>[] = [];
     const assignments: Record<string, unknown>[] = [];
     ORDERS.forEach((o, oi) => {
       const zone = tz(o.yard);
-      const day = tomorrow.get(o.yard)!;
+      // Most orders are tomorrow's; tonight's trouble call starts today (dayOffset -1).
+      const day = addDays(tomorrow.get(o.yard)!, o.dayOffset ?? 0);
       const type = WORK_TYPES.find((t) => t.code === o.workType);
       if (!type) throw new Error(`unknown work type ${o.workType}`);
       const start = localToUtc(day, o.start, zone);
-      let end = localToUtc(day, o.end, zone);
-      if (end <= start) end = localToUtc(addDays(day, 1), o.end, zone);
+      const endDay = addDays(day, o.endDayOffset ?? 0);
+      let end = localToUtc(endDay, o.end, zone);
+      if (end <= start) end = localToUtc(addDays(endDay, 1), o.end, zone);
       const orderId = oi + 1;
+      for (const s of o.shifts ?? []) {
+        const sDay = addDays(day, s.day);
+        const sStart = localToUtc(sDay, s.start, zone);
+        let sEnd = localToUtc(sDay, s.end, zone);
+        if (sEnd <= sStart) sEnd = localToUtc(addDays(sDay, 1), s.end, zone);
+        shifts.push({ work_order_id: orderId, start_at: sStart, end_at: sEnd });
+      }
       orders.push({
         id: orderId,
         organisation_id: ORG_ID,
@@ -254,6 +264,9 @@ export async function seed(knex: Knex): Promise<void> {
         work_date: day,
         energized: o.energized ?? true,
         voltage_kv: o.voltageKv,
+        phases: o.phases ?? 3,
+        system_kv: o.phases === 1 ? (o.systemKv ?? null) : null,
+        near_energized_kv: o.nearEnergizedKv ?? null,
         emergency: o.emergency ?? false,
         crew_exception: o.crewException ?? null,
         min_crew: type.minCrew,
@@ -265,7 +278,7 @@ export async function seed(knex: Knex): Promise<void> {
         locate_valid_through: o.locate ? addDays(day, o.locate.validThroughIn) : null,
         created_by: dispatcherUser(o.yard),
       });
-      type.positions.forEach((position, sort) => {
+      (o.positions ?? type.positions).forEach((position, sort) => {
         const positionId = positions.length + 1;
         positions.push({ id: positionId, work_order_id: orderId, position, sort });
         const wNo = o.crew?.[position];
@@ -285,6 +298,7 @@ export async function seed(knex: Knex): Promise<void> {
       });
     });
     await trx("work_orders").insert(orders);
+    if (shifts.length) await trx("work_order_shifts").insert(shifts);
     await trx("positions").insert(positions);
     await trx("assignments").insert(assignments);
 

@@ -8,6 +8,7 @@ export const RULE_QUALIFICATION_CODES = [
   "climbing",
   "first_aid_cpr",
   "pole_top_rescue",
+  "qualified_electrical",
   "aerial_rescue",
   "equipment_operator",
   "cdl_a",
