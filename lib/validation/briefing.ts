@@ -71,10 +71,28 @@ export const POLE_CHECKS = [
   {
     key: "ground_line",
     label: "Ground line",
-    hint: "On at least two sides, dig about 6 in. and probe at an angle for rot and soft wood",
+    hint: "Wood: on at least two sides, dig about 6 in. and probe at an angle for rot and soft wood. Steel: dig back and look for rust, pitting and thinned or holed metal at and just below the ground line. Concrete: cracks, spalling and exposed or rusting rebar at the ground line. Composite: cracks, splits or crushing at the ground line",
     woodOnly: false,
   },
 ] as const;
+
+/**
+ * The ground-line check differs by pole material (common practice; Appendix D to 1910.269
+ * covers wood poles only): wood rots just below the ground line, steel corrodes there,
+ * concrete cracks and spalls until the rebar shows.
+ */
+export const GROUND_LINE_HINTS: Record<PoleMaterial, string> = {
+  wood: "On at least two sides, dig about 6 in. and probe at an angle for rot and soft wood",
+  steel: "Dig back about 6 in. and look for rust, pitting and thinned or holed metal at and just below the ground line; tap doubtful spots",
+  concrete: "Look for cracks, spalling and exposed or rusting rebar at and just below the ground line; dig back where the soil hides it",
+  composite: "Look for cracks, splits, crushing or a loose pole at the ground line",
+};
+
+/** The hint for one pole check on a pole of this material. */
+export function poleCheckHint(key: PoleCheckKey, material: string | undefined): string {
+  if (key === "ground_line" && material && material in GROUND_LINE_HINTS) return GROUND_LINE_HINTS[material as PoleMaterial];
+  return POLE_CHECKS.find((c) => c.key === key)?.hint ?? "";
+}
 export type PoleCheckKey = (typeof POLE_CHECKS)[number]["key"];
 export const POLE_CHECK_KEYS = POLE_CHECKS.map((c) => c.key) as PoleCheckKey[];
 

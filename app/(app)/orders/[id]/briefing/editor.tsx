@@ -19,6 +19,7 @@ import {
   HAZARDS,
   POLE_CHECKS,
   POLE_MATERIALS,
+  poleCheckHint,
   type BriefingData,
   type BriefingFormValues,
 } from "@/lib/validation/briefing";
@@ -293,7 +294,7 @@ export function BriefingEditor({ view, onChange }: { view: ScreenView; onChange:
             return (
               <fieldset key={c.key} className={`rounded-md border bg-white p-3 ${item?.result === "fail" ? "border-block" : "border-rule"}`} data-testid={`pole-${c.key}`}>
                 <legend className="px-1 font-semibold">{c.label}</legend>
-                <p className="text-xs text-ink-500">{c.hint}</p>
+                <p className="text-xs text-ink-500" data-testid={`pole-${c.key}-hint`}>{poleCheckHint(c.key, material)}</p>
                 <div className="mt-2 flex flex-wrap items-center gap-2">
                   <div className="flex gap-2" role="radiogroup" aria-label={`${c.label}: result`}>
                     {(["pass", "fail", ...(showNa ? ["na"] : [])] as const).map((r) => (

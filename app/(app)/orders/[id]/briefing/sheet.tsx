@@ -171,7 +171,8 @@ export function PoleCite() {
     <>
       29 CFR 1910.269(q)(1)(i): before anyone climbs, the pole must be found able to carry the stresses of the work, or be braced or
       otherwise supported. Methods: 1910.269 Appendix D (inspecting and testing wood poles). Digging about 6 in. at the ground line on
-      two sides is common practice.
+      two sides of a wood pole is common practice; a steel pole is checked for corrosion at and below the ground line, a concrete
+      pole for cracks, spalling and exposed rebar.
     </>
   );
 }
