@@ -1,6 +1,7 @@
 import { hostname } from "node:os";
 import type { Knex } from "knex";
 import { audit } from "@/lib/data/audit";
+import { contentionKind, withConflictRetry } from "@/lib/db";
 import { todayIn } from "@/lib/data/yards";
 import { daysBetween, fmtDate } from "@/lib/format";
 import { addDaysIso } from "@/lib/validation/credential";
@@ -264,6 +265,9 @@ export async function runDailyReminders(
     });
   } catch (err) {
     if ((err as { code?: string })?.code === "ER_DUP_ENTRY") return { claimed: false, day, reason: "taken", ...empty };
+    // On Galera, two instances claiming the day on two nodes: the loser fails certification
+    // (1213) at commit instead of meeting the duplicate key. The other one has the day.
+    if (contentionKind(err) === "conflict") return { claimed: false, day, reason: "taken", ...empty };
     throw err;
   }
 }
@@ -271,9 +275,13 @@ export async function runDailyReminders(
 /** HR's "Send reminders now": no claim, still at most one reminder per credential per day. */
 export async function sendRemindersNow(db: Knex, actor: { id: number; organisationId: number }, now: Date = new Date()) {
   const day = now.toISOString().slice(0, 10);
-  return db.transaction(async (trx) => {
-    const counts = await queue(trx, now, "manual", day, actor.organisationId);
-    await audit(trx, actor, actor.organisationId, "reminders.send", "reminders", day, { ...counts });
-    return { day, ...counts };
-  });
+  return withConflictRetry(
+    () =>
+      db.transaction(async (trx) => {
+        const counts = await queue(trx, now, "manual", day, actor.organisationId);
+        await audit(trx, actor, actor.organisationId, "reminders.send", "reminders", day, { ...counts });
+        return { day, ...counts };
+      }),
+    "reminders",
+  );
 }

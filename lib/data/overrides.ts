@@ -4,6 +4,8 @@ import type { OverrideInput } from "@/lib/validation/board";
 import { audit, type Actor } from "./audit";
 import { crewHash } from "./board";
 import { findingsAfter } from "./assignments";
+import { withConflictRetry } from "@/lib/db";
+import { bumpOrders } from "./booking";
 import { boardEvent } from "./events";
 
 /**
@@ -30,8 +32,10 @@ export async function createOverride(db: Knex, user: Actor, input: OverrideInput
   if (f.level !== "block") {
     throw new ApiError(422, "Invalid rule: only block findings need an override.", { issues: [{ field: "rule", message: "Not a block" }] });
   }
-  return db.transaction(async (trx) => {
-    await trx("work_orders").where({ id: order.id }).forUpdate().first("id");
+  return withConflictRetry(() => db.transaction(async (trx) => {
+    // The crew hash below relies on the order's lock: write it too (work_orders.booking_seq),
+    // so a crew change committed on another Galera node at the same moment collides.
+    await bumpOrders(trx, [order.id]);
     const seats = await trx("assignments").where({ work_order_id: order.id }).whereNotNull("holds_position").select("position_id", "worker_id");
     const hash = crewHash(seats.map((s) => ({ positionId: s.position_id, workerId: s.worker_id })));
     const [id] = await trx("overrides").insert({
@@ -51,5 +55,5 @@ export async function createOverride(db: Knex, user: Actor, input: OverrideInput
     });
     await boardEvent(trx, { organisationId: user.organisationId, yardId: order.yard_id, day: order.work_date, kind: "override", payload: { orderId: order.id } });
     return { id, finding: f };
-  });
+  }), "override");
 }

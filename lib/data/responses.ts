@@ -1,6 +1,8 @@
 import type { Knex } from "knex";
 import { ApiError } from "@/lib/api/http";
 import { audit, type Actor } from "./audit";
+import { withConflictRetry } from "@/lib/db";
+import { bumpOrders } from "./booking";
 import { boardEvent } from "./events";
 
 // A worker's answer to an assignment, by text or on My week: the one state machine.
@@ -53,6 +55,9 @@ export async function respond(db: Knex | Knex.Transaction, input: RespondInput):
   const run = async (trx: Knex.Transaction) => {
     const peek = await trx("assignments").where({ id: input.assignmentId }).first("work_order_id");
     if (!peek) throw new ResponseRefused(404, "No such assignment.", "missing");
+    // Write what is locked (work_orders.booking_seq): a reply and a crew change or a send on
+    // another Galera node then collide at commit instead of both passing.
+    await bumpOrders(trx, [Number(peek.work_order_id)]);
     const order = await trx("work_orders")
       .where({ id: peek.work_order_id })
       .forUpdate()
@@ -115,5 +120,5 @@ export async function respond(db: Knex | Knex.Transaction, input: RespondInput):
     return { ...base, outcome, status: outcome };
   };
   if ((db as Knex.Transaction).isTransaction) return run(db as Knex.Transaction);
-  return (db as Knex).transaction(run, { isolationLevel: "read committed" });
+  return withConflictRetry(() => (db as Knex).transaction(run, { isolationLevel: "read committed" }), "reply");
 }

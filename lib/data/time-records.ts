@@ -3,6 +3,7 @@
 import type { Knex } from "knex";
 import { ApiError } from "@/lib/api/http";
 import { audit, type Actor } from "@/lib/data/audit";
+import { bumpWorkers } from "@/lib/data/booking";
 import { boardEvent } from "@/lib/data/events";
 import { getPolicy } from "@/lib/data/policies";
 import { fieldError, instant } from "@/lib/data/orders";
@@ -194,6 +195,8 @@ export async function recordWorkedTime(trx: Knex.Transaction, actor: Actor, t: W
   const start = instant(t.start, t.tz, "start");
   const end = instant(t.end, t.tz, "end");
   if (end <= start) throw fieldError("end", "The end must be after the start.");
+  // The overlap check below relies on the worker's lock: write it too (lib/data/booking.ts).
+  await bumpWorkers(trx, [Number(t.worker.id)]);
   const clash = await trx("time_records")
     .where({ worker_id: t.worker.id })
     .whereIn("kind", ["call_out", "manual"])

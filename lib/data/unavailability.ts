@@ -4,6 +4,7 @@
 import type { Knex } from "knex";
 import { ApiError } from "@/lib/api/http";
 import { audit, type Actor } from "@/lib/data/audit";
+import { bumpWorkers } from "@/lib/data/booking";
 import { boardEvent } from "@/lib/data/events";
 import { fieldError, instant } from "@/lib/data/orders";
 import { addDays } from "@/lib/data/yards";
@@ -132,6 +133,9 @@ async function postDays(trx: Knex.Transaction, org: number, yardId: number, star
 }
 
 async function lockWorker(trx: Knex.Transaction, org: number, workerId: number) {
+  // Write what is locked (workers.booking_seq): on Galera two overlapping entries for one
+  // person on two nodes then collide at commit instead of both passing the overlap check.
+  await bumpWorkers(trx, [workerId]);
   const w = await trx("workers as w")
     .join("yards as y", "y.id", "w.yard_id")
     .where({ "w.id": workerId, "w.organisation_id": org })

@@ -4,6 +4,7 @@
 import type { Knex } from "knex";
 import { parsePhoneNumberFromString } from "libphonenumber-js";
 import { audit } from "@/lib/data/audit";
+import { withConflictRetry } from "@/lib/db";
 import { respond, ResponseRefused, type Answer } from "@/lib/data/responses";
 import { formatPhone, replyText, shortDay, whenText } from "./messages";
 import { parseReply } from "./replies";
@@ -49,7 +50,9 @@ export async function handleInbound(db: Knex, params: InboundParams): Promise<In
   const from = normalisePhone(String(params.From ?? ""));
   const body = String(params.Body ?? "").slice(0, 1600);
   try {
-    return await db.transaction(async (trx) => {
+    // A repeat of the same MessageSid inserted on another Galera node at the same moment fails
+    // certification (1213) rather than the unique key: the retry then finds the key.
+    return await withConflictRetry(() => db.transaction(async (trx) => {
       // First, so a concurrent repeat of the same MessageSid waits here and then finds the key.
       const [inboundId] = await trx("inbound_messages").insert({
         provider_sid: sid,
@@ -77,7 +80,7 @@ export async function handleInbound(db: Knex, params: InboundParams): Promise<In
         });
       }
       return { duplicate: false, outcome: result.outcome, reply: result.reply, assignmentId: result.assignmentId, workerId: result.workerId };
-    }, TX);
+    }, TX), "inbound text");
   } catch (err) {
     if (isDuplicate(err)) return { duplicate: true, outcome: "duplicate", reply: null, assignmentId: null, workerId: null };
     throw err;

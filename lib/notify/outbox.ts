@@ -18,9 +18,20 @@
 //   - e-mail: SMTP cannot be asked, so the row is queued again and re-sent with the same
 //     Message-ID, which mail clients use to fold a duplicate.
 // Times come from the database (UTC_TIMESTAMP), never from an instance's own clock.
+//
+// Scaled out on Galera (README "Scaling out"), FOR UPDATE and SKIP LOCKED hold only on the node
+// that runs them: two loops on two nodes would take the same rows and one of the two claims
+// would fail certification at commit (1213) every time. So the claim is partitioned: a row
+// belongs to partition id MOD P, where P is the number of database nodes in DB_HOSTS and an
+// instance's partition is the position of its own (first-listed) node in the sorted list
+// (DELIVERY_PARTITION=k/P overrides). Instances on the same node share a partition and SKIP
+// LOCKED keeps them apart there. A row of another partition is taken only once it has waited
+// PARTITION_GRACE_SECONDS past due (its owners may all be down); should two claims still meet,
+// certification refuses one and withConflictRetry runs it again, and the refused claim sent nothing.
 import { randomBytes, randomUUID } from "node:crypto";
 import type { Knex } from "knex";
 import { boardEvent } from "@/lib/data/events";
+import { dbHosts, withConflictRetry } from "@/lib/db";
 import { emailAdapter, isPermanentEmailError, type EmailAdapter, type StoredAttachment } from "./email";
 import { isPermanentSmsError, smsAdapter, type SmsAdapter } from "./sms";
 
@@ -153,16 +164,27 @@ function parseAttachments(raw: unknown): { html: string | null; files: StoredAtt
 
 const token = () => randomBytes(16).toString("hex");
 
-async function withLockRetry<T>(fn: () => Promise<T>): Promise<T> {
-  for (let i = 0; ; i++) {
-    try {
-      return await fn();
-    } catch (err) {
-      const code = (err as { code?: string }).code;
-      if ((code === "ER_LOCK_DEADLOCK" || code === "ER_LOCK_WAIT_TIMEOUT") && i < 3) continue;
-      throw err;
-    }
-  }
+const withLockRetry = <T>(fn: () => Promise<T>) => withConflictRetry(fn, "outbox claim");
+
+export const PARTITION_GRACE_SECONDS = 10;
+
+/** This instance's outbox partition: { index k, count P } (P = 1: every row is its own). */
+export function deliveryPartition(env: Record<string, string | undefined> = process.env): { index: number; count: number } {
+  const m = /^(\d+)\/(\d+)$/.exec(env.DELIVERY_PARTITION ?? "");
+  if (m && Number(m[2]) >= 1 && Number(m[1]) < Number(m[2])) return { index: Number(m[1]), count: Number(m[2]) };
+  const hosts = dbHosts(env).map((h) => `${h.host}:${h.port}`);
+  const sorted = [...new Set(hosts)].sort();
+  if (sorted.length < 2) return { index: 0, count: 1 };
+  return { index: sorted.indexOf(hosts[0]), count: sorted.length };
+}
+
+/** Restricts a claim to this instance's partition, plus other partitions' rows overdue by the grace. */
+function inPartition(q: Knex.QueryBuilder, trx: Knex.Transaction, column: "next_attempt_at" | "claimed_at", extraSeconds = 0) {
+  const { index, count } = deliveryPartition();
+  if (count < 2) return q;
+  return q.where((w) =>
+    w.whereRaw("MOD(id, ?) = ?", [count, index]).orWhere(column, "<", trx.raw("UTC_TIMESTAMP(3) - INTERVAL ? SECOND", [PARTITION_GRACE_SECONDS + extraSeconds])),
+  );
 }
 
 const SELECT_CLAIMED = [
@@ -188,9 +210,7 @@ async function claim(db: Knex, limit: number): Promise<ClaimedRow[]> {
   const ids = await withLockRetry(() =>
     db.transaction(
       async (trx) => {
-        const rows = await trx("notifications")
-          .where("state", "queued")
-          .where("next_attempt_at", "<=", now3(trx))
+        const rows = await inPartition(trx("notifications").where("state", "queued").where("next_attempt_at", "<=", now3(trx)), trx, "next_attempt_at")
           .orderBy([{ column: "next_attempt_at" }, { column: "id" }])
           .limit(limit)
           .forUpdate()
@@ -220,9 +240,12 @@ async function claimStale(db: Knex, limit: number, leaseSeconds: number): Promis
   const found = await withLockRetry(() =>
     db.transaction(
       async (trx) => {
-        const rows = await trx("notifications")
-          .where("state", "sending")
-          .where("claimed_at", "<", trx.raw("UTC_TIMESTAMP(3) - INTERVAL ? SECOND", [leaseSeconds]))
+        const rows = await inPartition(
+          trx("notifications").where("state", "sending").where("claimed_at", "<", trx.raw("UTC_TIMESTAMP(3) - INTERVAL ? SECOND", [leaseSeconds])),
+          trx,
+          "claimed_at",
+          leaseSeconds,
+        )
           .orderBy("id")
           .limit(limit)
           .forUpdate()
@@ -250,7 +273,9 @@ async function claimStale(db: Knex, limit: number, leaseSeconds: number): Promis
 
 /** Settles a row as sent; true when this caller still held the claim. */
 async function settleSent(db: Knex, row: ClaimedRow, providerId: string, note: string | null, delivered: number[]) {
-  return db.transaction(async (trx) => {
+  // Retried on a conflict (a reply to the same assignment committed on another node): the
+  // message went out, so this must not turn into a send failure and a second send.
+  return withConflictRetry(() => db.transaction(async (trx) => {
     const n = await trx("notifications")
       .where({ id: row.id, claim_token: row.claim_token })
       .update({
@@ -268,7 +293,7 @@ async function settleSent(db: Knex, row: ClaimedRow, providerId: string, note: s
       if (moved) delivered.push(row.assignment_id);
     }
     return n === 1;
-  });
+  }), "outbox settle");
 }
 
 async function settleFailure(db: Knex, row: ClaimedRow, err: unknown, permanent: boolean) {
@@ -300,27 +325,36 @@ export function describeError(err: unknown) {
 }
 
 async function deliver(db: Knex, row: ClaimedRow, sms: SmsAdapter, email: EmailAdapter, delivered: number[]) {
+  let providerId: string;
   try {
     if (row.channel === "sms") {
       if (row.worker_id && row.sms_opt_in === 0) {
         return await settleFailure(db, row, new Error("The worker has opted out of texts (STOP); not sent."), true);
       }
-      const r = await sms.send({ to: row.to_address, body: row.body });
-      return (await settleSent(db, row, r.sid, null, delivered)) ? "sent" : "lost-claim";
+      providerId = (await sms.send({ to: row.to_address, body: row.body })).sid;
+    } else {
+      const { html, files } = parseAttachments(row.attachments);
+      const r = await email.send({
+        to: row.to_address,
+        subject: row.subject ?? "Gaffline",
+        text: row.body,
+        html,
+        attachments: files,
+        messageId: row.message_key ?? `<notification-${row.id}@${mailDomain()}>`,
+      });
+      providerId = r.messageId;
     }
-    const { html, files } = parseAttachments(row.attachments);
-    const r = await email.send({
-      to: row.to_address,
-      subject: row.subject ?? "Gaffline",
-      text: row.body,
-      html,
-      attachments: files,
-      messageId: row.message_key ?? `<notification-${row.id}@${mailDomain()}>`,
-    });
-    return (await settleSent(db, row, r.messageId, null, delivered)) ? "sent" : "lost-claim";
   } catch (err) {
     const permanent = row.channel === "sms" ? isPermanentSmsError(err) : isPermanentEmailError(err);
     return settleFailure(db, row, err, permanent);
+  }
+  // Sent. If recording that fails (the database went away), the row stays claimed and the
+  // stale-claim recovery finds the provider's copy: never queued again as if it had failed.
+  try {
+    return (await settleSent(db, row, providerId, null, delivered)) ? "sent" : "lost-claim";
+  } catch (err) {
+    console.error(`[outbox] notification ${row.id} was sent but could not be recorded yet:`, describeError(err));
+    return "unsettled";
   }
 }
 

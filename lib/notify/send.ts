@@ -23,7 +23,9 @@ import { parsePhoneNumberFromString } from "libphonenumber-js";
 import { ApiError } from "@/lib/api/http";
 import { audit, type Actor } from "@/lib/data/audit";
 import { loadBoard, unresolvedBlocks } from "@/lib/data/board";
+import { bumpOrders } from "@/lib/data/booking";
 import { boardEvent } from "@/lib/data/events";
+import { withConflictRetry } from "@/lib/db";
 import { pickYard } from "@/lib/data/yards";
 import { prepareBoardDay } from "@/lib/board/extras";
 import { appPublicUrl } from "./config";
@@ -192,7 +194,7 @@ export async function sendCrews(db: Knex, user: SessionActor, input: { date: str
   const day = input.date;
   await prepareBoardDay(db, user.organisationId, yard.id, day);
 
-  const result = await db.transaction(async (trx) => {
+  const result = await withConflictRetry(() => db.transaction(async (trx) => {
     const locked = await trx("work_orders")
       .where({ organisation_id: user.organisationId, yard_id: yard.id, work_date: day })
       .whereNot("status", "cancelled")
@@ -200,6 +202,10 @@ export async function sendCrews(db: Knex, user: SessionActor, input: { date: str
       .forUpdate()
       .select("id", "status");
     const orderIds = locked.filter((o) => o.status !== "done").map((o) => o.id as number);
+    // The block check below relies on these locks: write the rows too (booking_seq), so a crew
+    // change committed on another Galera node meanwhile, or a second Send crews there, collides
+    // at commit and this send runs again on what is then committed (lib/data/booking.ts).
+    await bumpOrders(trx, locked.map((o) => o.id as number));
 
     // The board as it stands under the lock: no unresolved block may remain.
     const board = await loadBoard(trx as unknown as Knex, { organisationId: user.organisationId, yard, yards, day });
@@ -312,7 +318,7 @@ export async function sendCrews(db: Knex, user: SessionActor, input: { date: str
       payload: { assignments, messages, ...counts },
     });
     return { assignments, messages, ...counts, unreachable };
-  }, TX);
+  }, TX), "send crews");
 
   if (result.messages) pokeDelivery();
   return result;
@@ -320,9 +326,10 @@ export async function sendCrews(db: Knex, user: SessionActor, input: { date: str
 
 /** Re-send: a fresh text and e-mail for one assignment already sent (a worker lost the text). */
 export async function resendAssignment(db: Knex, user: SessionActor, assignmentId: number) {
-  const out = await db.transaction(async (trx) => {
+  const out = await withConflictRetry(() => db.transaction(async (trx) => {
     const peek = await trx("assignments").where({ id: assignmentId }).first("work_order_id");
     if (!peek) throw new ApiError(404, "No such assignment.");
+    await bumpOrders(trx, [Number(peek.work_order_id)]); // write what is locked (booking_seq)
     const order = await trx("work_orders").where({ id: peek.work_order_id }).forUpdate().first("id", "organisation_id", "yard_id", "work_date", "number");
     if (!order || order.organisation_id !== user.organisationId) throw new ApiError(404, "No such assignment.");
     const [r] = (await factQuery(trx).where("a.id", assignmentId).forUpdate()) as FactRow[];
@@ -346,7 +353,7 @@ export async function resendAssignment(db: Knex, user: SessionActor, assignmentI
     });
     await boardEvent(trx, { organisationId: user.organisationId, yardId: order.yard_id, day: order.work_date, kind: "send", payload: { resend: r.id } });
     return { messages, channels: rows.map((x) => x.channel) };
-  }, TX);
+  }, TX), "re-send");
   pokeDelivery();
   return out;
 }

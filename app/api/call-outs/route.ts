@@ -1,4 +1,4 @@
-import { db } from "@/lib/db";
+import { db, transact } from "@/lib/db";
 import { handler, json, readJson } from "@/lib/api/http";
 import { requireRole } from "@/lib/auth/session";
 import { createCallOut } from "@/lib/data/rotations";
@@ -8,6 +8,6 @@ import { callOutSchema } from "@/lib/validation/rotation";
 export const POST = handler(async (req) => {
   const user = await requireRole("dispatcher", "supervisor");
   const input = await readJson(req, callOutSchema);
-  const result = await db().transaction((trx) => createCallOut(trx, user, input));
+  const result = await transact(db(), (trx) => createCallOut(trx, user, input), { isolationLevel: "repeatable read", what: "call-out" });
   return json(result, 201);
 });

@@ -1,4 +1,4 @@
-import { db } from "@/lib/db";
+import { db, transact } from "@/lib/db";
 import { ApiError, handler, json, readJson, readQuery } from "@/lib/api/http";
 import { requireRole } from "@/lib/auth/session";
 import { createManualRecord, workerWeek } from "@/lib/data/time-records";
@@ -25,6 +25,6 @@ export const GET = handler(async (req) => {
 export const POST = handler(async (req) => {
   const user = await requireRole("dispatcher", "supervisor", "hr");
   const input = await readJson(req, manualTimeRecordSchema);
-  const id = await db().transaction((trx) => createManualRecord(trx, user, input));
+  const id = await transact(db(), (trx) => createManualRecord(trx, user, input), { isolationLevel: "repeatable read", what: "time record" });
   return json({ id }, 201);
 });

@@ -1,4 +1,4 @@
-import { db } from "@/lib/db";
+import { db, transact } from "@/lib/db";
 import { ApiError, handler, json, readJson, readQuery } from "@/lib/api/http";
 import { requireRole } from "@/lib/auth/session";
 import { createUnavailability, getUnavailability, listUnavailability } from "@/lib/data/unavailability";
@@ -21,6 +21,6 @@ export const GET = handler(async (req) => {
 export const POST = handler(async (req) => {
   const user = await requireRole("hr", "supervisor", "lineworker");
   const input = await readJson(req, unavailabilitySchema);
-  const id = await db().transaction((trx) => createUnavailability(trx, user, input));
+  const id = await transact(db(), (trx) => createUnavailability(trx, user, input), { isolationLevel: "repeatable read", what: "unavailability" });
   return json(await getUnavailability(db(), user.organisationId, id), 201);
 });

@@ -1,4 +1,4 @@
-import { db } from "@/lib/db";
+import { db, transact } from "@/lib/db";
 import { idParam } from "@/lib/api/ids";
 import { ApiError, handler, json, readJson } from "@/lib/api/http";
 import { requireRole } from "@/lib/auth/session";
@@ -21,7 +21,7 @@ export const PATCH = handler<Params>(async (req, ctx) => {
   const user = await requireRole("supervisor", "hr");
   const id = await idOf(ctx);
   const patch = await readJson(req, unavailabilityPatchSchema);
-  await db().transaction((trx) => updateUnavailability(trx, user, id, patch));
+  await transact(db(), (trx) => updateUnavailability(trx, user, id, patch), { isolationLevel: "repeatable read", what: "unavailability" });
   return json(await getUnavailability(db(), user.organisationId, id));
 });
 
