@@ -32,6 +32,9 @@ import { FindingRow, OverrideDialog } from "./findings";
 import { call, HttpError, useBoardData, useBoardMutations, useEngine, useLiveEvents, useToast, type Change } from "./use-board";
 import { SendCrewsButton } from "./send-crews";
 import { FillPanel } from "./fill-panel";
+import { useEquipmentDnd } from "./use-equipment";
+import { EquipmentPool } from "./equipment-pool";
+import { EquipmentSeats } from "./equipment-seats";
 
 // Pointer first (what is under the finger or cursor), rectangles for the keyboard.
 const collision: CollisionDetection = (args) => {
@@ -61,6 +64,13 @@ export function BoardClient({
   const [overId, setOverId] = useState<string | null>(null);
   const [overriding, setOverriding] = useState<Finding | null>(null);
   useLiveEvents(key, data?.cursor, activeId !== null || mutation.isPending);
+  // Equipment (issue 16): trucks dragged with the same sensors; their own locked write path.
+  const equipmentDnd = useEquipmentDnd(key, data, notify);
+  const equipmentById = useMemo(() => new Map((data?.equipment ?? []).map((e) => [e.id, e])), [data?.equipment]);
+  const equipmentRow = useCallback(
+    (card: OrderCard) => <EquipmentSeats card={card} bookings={data?.equipmentBookings ?? []} equipment={equipmentById} day={data?.day ?? day} />,
+    [data?.equipmentBookings, equipmentById, data?.day, day],
+  );
 
   // Leaving the page while a change is still on its way would lose it: ask first.
   useEffect(() => {
@@ -149,7 +159,7 @@ export function BoardClient({
   const describe = useCallback(
     (id: string | number) => {
       const p = parseId(String(id));
-      if (!p) return "nothing";
+      if (!p) return equipmentDnd.describe(String(id)) ?? "nothing";
       if (p.kind === "pool-zone") return "the pool (off the order)";
       if (p.kind === "pool") return workers.get(p.n)?.name ?? "a worker";
       const s = seatIndex.get(p.n);
@@ -167,6 +177,11 @@ export function BoardClient({
     setOverId(e.over ? String(e.over.id) : null);
   }
   function onDragEnd(e: DragEndEvent) {
+    if (equipmentDnd.onDragEnd(e)) {
+      setActiveId(null);
+      setOverId(null);
+      return;
+    }
     const from = parseId(String(e.active.id));
     const to = parseId(e.over ? String(e.over.id) : null);
     setActiveId(null);
@@ -310,6 +325,7 @@ export function BoardClient({
       <div className="grid gap-4 md:grid-cols-[260px_minmax(0,1fr)] lg:grid-cols-[320px_minmax(0,1fr)]">
         <aside className="card min-w-0 p-3 md:self-start">
           <PoolPanel payload={data} placedOn={placedOn} />
+          <EquipmentPool payload={data} />
         </aside>
         <div className="grid min-w-0 grid-cols-1 content-start gap-3 xl:grid-cols-2 2xl:grid-cols-3" data-testid="orders">
           {orders.map((o) => (
@@ -326,6 +342,7 @@ export function BoardClient({
               onOverride={setOverriding}
               locateWarning={o.locateWarning}
               canResend={role === "dispatcher" || role === "supervisor"}
+              equipmentRow={equipmentRow}
             />
           ))}
           {orders.length === 0 && <p className="card p-6 text-sm text-ink-500">No work orders for this yard on this day.</p>}
@@ -346,6 +363,10 @@ export function BoardClient({
         {activeName ? (
           <div data-testid="drag-overlay" className="rounded-md border border-copper bg-white px-2.5 py-1.5 text-sm font-bold shadow-lg">
             {activeName.name} <span className="text-xs font-semibold text-ink-500">{CLASSIFICATION_LABEL[activeName.classification]}</span>
+          </div>
+        ) : equipmentDnd.dragged(activeId) ? (
+          <div data-testid="drag-overlay" className="rounded-md border border-copper bg-white px-2.5 py-1.5 text-sm font-bold shadow-lg">
+            🚚 {equipmentDnd.dragged(activeId)!.unitNumber} <span className="text-xs font-semibold text-ink-500">{equipmentDnd.dragged(activeId)!.name}</span>
           </div>
         ) : null}
       </DragOverlay>

@@ -152,6 +152,7 @@ export const OrderCardView = memo(function OrderCardView({
   onOverride,
   locateWarning,
   canResend = false,
+  equipmentRow,
 }: {
   card: Card;
   timezone: string;
@@ -164,6 +165,8 @@ export const OrderCardView = memo(function OrderCardView({
   onOverride: (f: Finding) => void;
   locateWarning: string | null;
   canResend?: boolean;
+  /** The order's equipment seats (issue 16: app/(app)/board/equipment-seats.tsx). */
+  equipmentRow?: (card: Card) => React.ReactNode;
 }) {
   const [open, setOpen] = useState(false);
   const valid = new Map(overrides.filter((o) => o.valid).map((o) => [findingKey(o), o]));
@@ -245,6 +248,7 @@ export const OrderCardView = memo(function OrderCardView({
           />
         ))}
       </ul>
+      {equipmentRow?.(card)}
       {findings.length > 0 && (
         <div className="mt-2 border-t border-rule pt-2">
           <button
