@@ -8,7 +8,7 @@ import type { Finding } from "./types";
 
 export const RIGGING_SOURCE = LIFT_SOURCE;
 
-const PART_WORDS = { block: "upper block", line: "hand line (lead-line pull)", "sling leg": "each sling leg" } as const;
+const PART_WORDS = { block: "the upper block", line: "the hand line (lead-line pull)", "sling leg": "each sling leg" } as const;
 
 /** Plain figures (897.4 lb, 2000 lb): the same digits the report's `orders[].lift` shows. */
 const lb = (n: number) => `${n} lb`;
@@ -24,7 +24,7 @@ export const rigging: RuleCheck = (orders) => {
           "block",
           order,
           null,
-          `The lift puts ${lb(o.forceLb)} on the ${PART_WORDS[o.part]}, over its working load limit of ${lb(o.limitLb)}. ` +
+          `The lift puts ${lb(o.forceLb)} on ${PART_WORDS[o.part]}, over its working load limit of ${lb(o.limitLb)}. ` +
             "Add parts of line, choose rigging rated for the load, or change the sling angle before the lift.",
           RIGGING_SOURCE,
         ),
