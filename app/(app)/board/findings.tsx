@@ -4,6 +4,7 @@ import { useState } from "react";
 import type { OverrideView } from "@/lib/board/types";
 import type { Finding } from "@/lib/rules/types";
 import { Badge } from "@/components/status";
+import { fixHint } from "@/lib/board/fix-hints";
 
 export function FindingRow({
   finding: f,
@@ -35,6 +36,7 @@ export function FindingRow({
       </div>
       <p className="mt-0.5 text-ink-700">{f.message}</p>
       <p className="mt-0.5 text-[11px] text-ink-500">Source: {f.source}</p>
+      <FixLine finding={f} />
       {waived && (
         <p className="mt-0.5 text-[11px] text-waived">
           ✎ {override.actorName}: “{override.reason}”
@@ -52,6 +54,24 @@ export function FindingRow({
         </div>
       )}
     </li>
+  );
+}
+
+function FixLine({ finding: f }: { finding: Finding }) {
+  const hint = fixHint(f.rule);
+  if (!hint) return null;
+  return (
+    <p className="mt-0.5 text-[11px] text-ink-700" data-testid={`fix-${f.rule}`}>
+      <span className="font-bold">What to do:</span> {hint.text}
+      {hint.link && (
+        <>
+          {" "}
+          <a className="font-semibold text-copper underline" href={hint.link.href(f.workOrderId)}>
+            {hint.link.label}
+          </a>
+        </>
+      )}
+    </p>
   );
 }
 
