@@ -4,6 +4,7 @@
 import { db } from "@/lib/db";
 import { startDeliveryLoop } from "@/lib/notify/outbox";
 import { runDailyReminders } from "@/lib/reminders";
+import { runDailyGearReminders } from "@/lib/gear/reminders";
 
 export interface BackgroundJob {
   name: string;
@@ -15,6 +16,8 @@ export interface BackgroundJob {
 export const backgroundJobs: BackgroundJob[] = [
   // Once a day (claimed in job_claims, so one instance does it): credential reminders and HR's digest.
   { name: "credential-reminders", everyMs: 60_000, run: async () => void (await runDailyReminders(db())) },
+  // Once a day: rubber goods test reminders (1910.137 Table I-5 intervals).
+  { name: "gear-reminders", everyMs: 60_000, run: async () => void (await runDailyGearReminders(db())) },
 ];
 
 const g = globalThis as unknown as { gafflineBackground?: boolean };

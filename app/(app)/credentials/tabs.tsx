@@ -2,12 +2,13 @@ import Link from "next/link";
 
 const TABS = [
   { href: "/credentials", key: "list", label: "Credentials" },
+  { href: "/credentials/gear", key: "gear", label: "Rubber goods" },
   { href: "/credentials/types", key: "types", label: "Qualification types" },
   { href: "/credentials/import", key: "import", label: "Import CSV", editOnly: true },
 ] as const;
 
 /** The desk's tabs. */
-export function CredentialTabs({ active, canEdit }: { active: "list" | "types" | "import"; canEdit: boolean }) {
+export function CredentialTabs({ active, canEdit }: { active: "list" | "types" | "import" | "gear"; canEdit: boolean }) {
   return (
     <nav aria-label="Credentials" className="mb-4 flex gap-1 overflow-x-auto border-b border-rule">
       {TABS.filter((t) => canEdit || !("editOnly" in t)).map((t) => (

@@ -11,6 +11,8 @@ import { CLASSIFICATION_LABEL } from "@/lib/format";
 import { Badge, PageHeader } from "@/components/status";
 import { CredentialState } from "@/components/credential-state";
 import { WorkerDesk } from "./worker-desk";
+import { GearSection } from "./gear-section";
+import { listGear } from "@/lib/gear/data";
 
 export const metadata = { title: "Worker credentials" };
 
@@ -23,9 +25,13 @@ export default async function WorkerCredentialsPage({ params }: { params: Promis
   if (!Number.isSafeInteger(id)) notFound();
   const worker = await getWorker(db(), user.organisationId, id);
   if (!worker) notFound();
-  const [creds, types] = await Promise.all([
+  const [creds, types, gear] = await Promise.all([
     workerCredentials(db(), user.organisationId, id),
     listTypes(db(), user.organisationId),
+    listGear(db(), user.organisationId, { workerId: id, view: undefined }).then(async (inService) => [
+      ...inService,
+      ...(await listGear(db(), user.organisationId, { workerId: id, view: "retired" })),
+    ]),
   ]);
   const canEdit = CAN_KEEP_CREDENTIALS.includes(user.role);
   const isOwn = user.role === "lineworker";
@@ -67,6 +73,8 @@ export default async function WorkerCredentialsPage({ params }: { params: Promis
         today={today}
         mode={canEdit ? "hr" : isOwn ? "own" : "read"}
       />
+
+      <GearSection workerId={worker.id} items={gear} today={today} canEdit={canEdit} />
 
       <section className="mt-8" aria-labelledby="history-h">
         <h2 id="history-h" className="mb-2 text-base font-bold">
