@@ -406,9 +406,9 @@ export async function equipmentForSnapshot(
   };
 }
 
-/** Unit numbers per order, for Send crews' wording. */
-export async function unitsForOrders(db: Q, orderIds: number[]): Promise<Map<number, string[]>> {
-  const out = new Map<number, string[]>();
+/** The equipment on each order (unit number and name), for Send crews' wording. */
+export async function unitsForOrders(db: Q, orderIds: number[]): Promise<Map<number, { unit: string; name: string }[]>> {
+  const out = new Map<number, { unit: string; name: string }[]>();
   if (!orderIds.length) return out;
   const rows = await db("equipment_assignments as ea")
     .join("equipment as e", "e.id", "ea.equipment_id")
@@ -417,7 +417,7 @@ export async function unitsForOrders(db: Q, orderIds: number[]): Promise<Map<num
     .select("ea.work_order_id", "e.unit_number", "e.name");
   for (const r of rows) {
     const list = out.get(Number(r.work_order_id)) ?? [];
-    list.push(String(r.unit_number));
+    list.push({ unit: String(r.unit_number), name: String(r.name) });
     out.set(Number(r.work_order_id), list);
   }
   return out;

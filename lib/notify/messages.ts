@@ -113,6 +113,8 @@ export interface JobFacts {
   dispatcherPhone: string | null;
   crew: { name: string; position: string }[];
   version: number;
+  /** The equipment on the order (issue 16): unit number and name. */
+  trucks?: { unit: string; name: string }[];
 }
 
 export function positionLabel(p: string) {
@@ -151,6 +153,12 @@ export function formatPhone(e164: string | null | undefined) {
   return p ? p.formatNational() : e164;
 }
 
+/** "Truck N-314." / "Trucks N-314, N-502." — the unit numbers the crew takes (issue 16). */
+export function trucksText(trucks: { unit: string }[] | undefined) {
+  if (!trucks?.length) return "";
+  return `${trucks.length > 1 ? "Trucks" : "Truck"} ${trucks.map((t) => t.unit).join(", ")}.`;
+}
+
 /** Where: the pole (unless the title already names it) and the address. */
 function placeText(f: Pick<JobFacts, "title" | "structureNo" | "address">) {
   const bits: string[] = [];
@@ -167,13 +175,14 @@ export function jobSms(kind: Exclude<OutboundKind, "removal">, f: JobFacts) {
   const lead = kind === "change" ? "Gaffline CHANGE:" : kind === "resend" ? "Gaffline reminder:" : "Gaffline:";
   const tail = `Reply Y ${f.replyCode} to confirm, N ${f.replyCode} to decline.`;
   return fitSms(
-    (p) => `${lead} ${p.when} ${p.position} on ${p.number} ${p.title}${p.place ? `, ${p.place}` : ""}. ${tail}`,
+    (p) => `${lead} ${p.when} ${p.position} on ${p.number} ${p.title}${p.place ? `, ${p.place}` : ""}. ${p.trucks ? `${p.trucks} ` : ""}${tail}`,
     {
       when: whenText(f.start, f.end, f.timezone),
       position: positionLabel(f.position),
       number: f.orderNumber,
       title: f.title.trim(),
       place: placeText(f),
+      trucks: trucksText(f.trucks),
     },
     ["title", "place"],
   );
@@ -304,6 +313,7 @@ export function jobEmail(kind: OutboundKind, f: JobFacts, appUrl: string): Email
     `  Position:   ${pos}`,
     `  When:       ${when} (${zoneNote})`,
     `  Where:      ${place}`,
+    ...(f.trucks?.length ? [`  Equipment:  ${f.trucks.map((t) => `${t.unit} ${t.name}`).join("; ")}`] : []),
     "",
     "Crew:",
     ...(crew.length ? crew : ["  (you so far)"]),
@@ -322,7 +332,9 @@ export function jobEmail(kind: OutboundKind, f: JobFacts, appUrl: string): Email
     `<tr><th align="left">Work order</th><td>${esc(f.orderNumber)} — ${esc(f.title)}</td></tr>` +
     `<tr><th align="left">Position</th><td>${esc(pos)}</td></tr>` +
     `<tr><th align="left">When</th><td>${esc(when)} (${esc(zoneNote)})</td></tr>` +
-    `<tr><th align="left">Where</th><td>${esc(place)}</td></tr></table>` +
+    `<tr><th align="left">Where</th><td>${esc(place)}</td></tr>` +
+    (f.trucks?.length ? `<tr><th align="left">Equipment</th><td>${f.trucks.map((t) => `${esc(t.unit)} ${esc(t.name)}`).join("; ")}</td></tr>` : "") +
+    `</table>` +
     `<p><strong>Crew</strong></p><ul>${f.crew.map((c) => `<li>${esc(c.name)}, ${esc(positionLabel(c.position))}</li>`).join("") || "<li>(you so far)</li>"}</ul>` +
     `<p>Please answer: reply to our text with <strong>Y ${esc(f.replyCode)}</strong> to confirm or <strong>N ${esc(f.replyCode)}</strong> to decline, or answer on <a href="${esc(myWeek)}">My week</a>.${dispatcher ? ` Questions: call dispatch at ${esc(dispatcher)}.` : ""}</p>` +
     `<p>The attached calendar file puts the job in your phone's calendar.</p><p>— Gaffline, ${esc(f.yardName)}</p>`;

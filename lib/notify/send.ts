@@ -30,6 +30,7 @@ import { pickYard } from "@/lib/data/yards";
 import { prepareBoardDay } from "@/lib/board/extras";
 import { appPublicUrl } from "./config";
 import { jobEmail, jobSms, removalSms, type JobFacts, type OutboundKind } from "./messages";
+import { unitsForOrders } from "@/lib/equipment/data";
 import { enqueue, pokeDelivery, type OutboxInput } from "./outbox";
 
 const TX = { isolationLevel: "read committed" as const };
@@ -140,7 +141,7 @@ async function crewsOf(q: Knex | Knex.Transaction, orderIds: number[]) {
   return m;
 }
 
-function facts(r: FactRow, crew: { name: string; position: string }[]): JobFacts {
+function facts(r: FactRow, crew: { name: string; position: string }[], trucks: { unit: string; name: string }[] = []): JobFacts {
   return {
     assignmentId: r.id,
     orderNumber: r.number,
@@ -158,12 +159,19 @@ function facts(r: FactRow, crew: { name: string; position: string }[]): JobFacts
     dispatcherPhone: r.dispatcher_phone,
     crew,
     version: r.version,
+    trucks,
   };
 }
 
 /** The outbox rows telling one person one thing: a text and an e-mail where they can be reached. */
-export function messagesFor(r: FactRow, kind: OutboundKind, crew: { name: string; position: string }[], keyBase: string): OutboxInput[] {
-  const f = facts(r, crew);
+export function messagesFor(
+  r: FactRow,
+  kind: OutboundKind,
+  crew: { name: string; position: string }[],
+  keyBase: string,
+  trucks: { unit: string; name: string }[] = [],
+): OutboxInput[] {
+  const f = facts(r, crew, trucks);
   const out: OutboxInput[] = [];
   const common = { organisationId: r.organisation_id, workerId: r.worker_id, assignmentId: r.id, kind };
   if (isTextable(r.phone_e164) && r.sms_opt_in) {
@@ -248,12 +256,13 @@ export async function sendCrews(db: Knex, user: SessionActor, input: { date: str
         : [];
 
     const crews = await crewsOf(trx, [...new Set([...live, ...removed].map((r) => r.work_order_id))]);
+    const trucks = await unitsForOrders(trx, [...new Set(live.map((r) => r.work_order_id))]);
     const now = new Date();
     const outbox: OutboxInput[] = [];
     const counts = { new: 0, changed: 0, removed: 0 };
     const unreachable: SendResult["unreachable"] = [];
     const told = (r: FactRow, kind: OutboundKind) => {
-      const rows = messagesFor(r, kind, crews.get(r.work_order_id) ?? [], `${kind}:a${r.id}:v${r.version}`);
+      const rows = messagesFor(r, kind, crews.get(r.work_order_id) ?? [], `${kind}:a${r.id}:v${r.version}`, trucks.get(r.work_order_id) ?? []);
       if (!rows.length && kind !== "removal") unreachable.push({ assignmentId: r.id, workerId: r.worker_id, name: `${r.first_name} ${r.last_name}` });
       outbox.push(...rows);
     };
@@ -343,7 +352,8 @@ export async function resendAssignment(db: Knex, user: SessionActor, assignmentI
       .first("id");
     if (recent) throw new ApiError(409, `A re-send to ${r.first_name} ${r.last_name} was queued moments ago.`);
     const crews = await crewsOf(trx, [r.work_order_id]);
-    const rows = messagesFor(r, "resend", crews.get(r.work_order_id) ?? [], `resend:a${r.id}:${randomUUID()}`);
+    const trucks = await unitsForOrders(trx, [r.work_order_id]);
+    const rows = messagesFor(r, "resend", crews.get(r.work_order_id) ?? [], `resend:a${r.id}:${randomUUID()}`, trucks.get(r.work_order_id) ?? []);
     if (!rows.length) throw new ApiError(409, `${r.first_name} ${r.last_name} has no textable phone or e-mail on file: call them.`);
     const messages = await enqueue(trx, rows);
     await audit(trx, user, user.organisationId, "assignment.resend", "assignment", r.id, {
