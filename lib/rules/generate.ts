@@ -2,6 +2,7 @@
 // leave and weeks of time records, and the day's work orders with realistic crews. Pure: the
 // same options always give the same snapshot. All names are invented.
 
+import { addEquipmentAndGear } from "./generate-equipment";
 import { epochToOffsetTime, zonedWallTimeToEpoch } from "./time";
 import {
   DEFAULT_POLICY,
@@ -27,6 +28,11 @@ export interface GenerateOptions {
   date?: string;
   /** IANA zone (default America/Chicago). */
   timezone?: string;
+  /**
+   * Equipment in the fleet; when given, the day also carries every worker's rubber goods, the
+   * trucks' assignments and the orders' elevation, phases and lifts (generate-equipment.ts).
+   */
+  trucks?: number;
 }
 
 /** mulberry32: a small, fast, seeded PRNG returning floats in [0, 1). */
@@ -87,6 +93,8 @@ export function generateDay(opts: GenerateOptions): DaySnapshot {
     give("pole_top_rescue", climbs ? 0.65 : 0.3);
     give("aerial_rescue", classification === "apprentice" ? 0.3 : 0.55);
     give("equipment_operator", classification === "operator" ? 0.95 : 0.15);
+    // Corrections 1: some operators are also qualified electrical workers.
+    give("qualified_electrical", classification === "operator" ? 0.4 : classification === "ground_hand" ? 0.05 : 0.2);
     give(chance(0.4) ? "cdl_a" : "cdl_b", classification === "apprentice" ? 0.4 : 0.7);
     if (chance(0.1)) credentials.push({ type: "traffic_control", expiresOn: expiry() });
 
@@ -164,7 +172,7 @@ export function generateDay(opts: GenerateOptions): DaySnapshot {
   const types: WorkType[] = ["pole_climb", "pole_climb", "pole_climb", "bucket", "bucket", "bucket", "digger_derrick", "digger_derrick", "patrol", "storm", "other"];
   const templates: Record<WorkType, Array<[Position, string]>> = {
     pole_climb: [["lead", "journey"], ["climber", "apprentice"], ["observer", "ground_hand"]],
-    bucket: [["lead", "journey"], ["climber", "journey"], ["ground", "ground_hand"], ["driver", "operator"]],
+    bucket: [["lead", "journey"], ["aerial", "journey"], ["ground", "ground_hand"], ["driver", "operator"]],
     digger_derrick: [["lead", "journey"], ["operator", "operator"], ["observer", "ground_hand"], ["ground", "apprentice"]],
     patrol: [["lead", "journey"]],
     storm: [["lead", "journey"], ["climber", "journey"], ["observer", "apprentice"], ["driver", "operator"]],
@@ -175,21 +183,35 @@ export function generateDay(opts: GenerateOptions): DaySnapshot {
     const workType = pick(types);
     const startMin = int(12, 20) * 30; // 06:00-10:00
     const start = at(date, startMin);
-    const end = at(date, startMin + int(8, 20) * 30); // 4-10 h
+    const lenMin = int(8, 20) * 30; // 4-10 h
+    // Corrections 6: a few storm orders run over two or three days, worked in daily shifts.
+    const days = workType === "storm" && chance(0.4) ? int(2, 3) : 1;
+    const end = at(date, startMin + (days - 1) * 1440 + lenMin);
+    const shifts = days > 1 && chance(0.75) ? Array.from({ length: days }, (_, d) => ({ start: at(date, startMin + d * 1440), end: at(date, startMin + d * 1440 + lenMin) })) : undefined;
     const energized = chance(0.85);
+    // Corrections 2: de-energized work often has live parts within reach.
+    const nearEnergizedKv = !energized && chance(0.6) ? pick([12.47, 7.2, 0.24]) : null;
+    // Corrections 7: derrick work digs; most have a ticket, a few lapse early or have none.
+    const digs = workType === "digger_derrick" && chance(0.7);
+    const endDate = addDays(date, days - 1);
+    const locate = digs && chance(0.85) ? { ticket: `T${int(100000, 999999)}`, validThrough: chance(0.85) ? addDays(endDate, int(0, 10)) : addDays(endDate, -1) } : null;
     const order: WorkOrder = {
       id: `wo-${pad(i + 1, 4)}`,
       title: `${workType.replace("_", " ")} job ${i + 1}, feeder ${int(1, 60)}`,
       start,
       end,
       startDate: date,
-      endDate: date,
+      endDate,
       workType,
       energized,
       voltageKv: pick([12.47, 12.47, 7.2, 24.94, 34.5, 0.24, null]),
       exception: chance(0.03) ? "emergency" : chance(0.02) ? "routine_switching" : null,
       minCrew: chance(0.3) ? int(3, 4) : null,
       driverLicence: chance(0.2) ? "cdl_a" : "cdl_b",
+      nearEnergizedKv,
+      ...(shifts ? { shifts } : {}),
+      digs,
+      locate,
     };
     workOrders.push(order);
 
@@ -200,6 +222,10 @@ export function generateDay(opts: GenerateOptions): DaySnapshot {
       const w = draw(pool);
       if (w) crew.push([position, w]);
     }
+    if (workType === "bucket" && chance(0.15)) {
+      const w = draw("journey"); // a second person aloft
+      if (w) crew.push(["aerial", w]);
+    }
     if (workType === "pole_climb" && chance(0.3)) {
       const w = draw("journey");
       if (w) crew.push(["climber", w]);
@@ -209,13 +235,14 @@ export function generateDay(opts: GenerateOptions): DaySnapshot {
     for (const [position, w] of crew) assignments.push({ workOrderId: order.id, workerId: w.id, position });
   }
 
-  return {
+  const generated: DaySnapshot = {
     timezone: tz,
     policy: { ...DEFAULT_POLICY },
     workers,
     workOrders,
     assignments,
   };
+  return opts.trucks === undefined ? generated : addEquipmentAndGear(generated, { trucks: opts.trucks, seed: opts.seed, date });
 }
 
 /** The snapshot as crew-check input JSON (times with explicit offsets, so they round-trip exactly). */
@@ -231,6 +258,7 @@ export function toDayInput(s: DaySnapshot): Record<string, unknown> {
       credentials: w.credentials,
       unavailable: w.unavailable.map((u) => ({ from: t(u.start), to: t(u.end), reason: u.reason })),
       timeRecords: w.timeRecords.map((r) => ({ start: t(r.start), end: t(r.end) })),
+      ...(w.gear ? { gear: w.gear } : {}),
     })),
     workOrders: s.workOrders.map((o) => ({
       id: o.id,
@@ -243,7 +271,16 @@ export function toDayInput(s: DaySnapshot): Record<string, unknown> {
       exception: o.exception,
       minCrew: o.minCrew,
       driverLicence: o.driverLicence ?? "cdl_b",
+      altitudeM: o.altitudeM ?? 0,
+      phases: o.phases ?? 3,
+      systemKv: o.systemKv ?? null,
+      lift: o.lift ?? null,
+      nearEnergizedKv: o.nearEnergizedKv ?? null,
+      ...(o.shifts ? { shifts: o.shifts.map((sh) => ({ start: t(sh.start), end: t(sh.end) })) } : {}),
+      digs: o.digs ?? false,
+      locate: o.locate ?? null,
     })),
     assignments: s.assignments,
+    ...(s.equipment ? { equipment: s.equipment, equipmentAssignments: s.equipmentAssignments ?? [] } : {}),
   };
 }

@@ -39,14 +39,50 @@ const workerArb = fc.record({
 
 const orderArb = fc.record({
   startH: fc.integer({ min: -8, max: 16 }),
-  len: fc.integer({ min: 1, max: 17 }),
+  // Mostly one day; sometimes a multi-day order (CREW-CHECK.md Corrections 6).
+  len: fc.oneof({ arbitrary: fc.integer({ min: 1, max: 17 }), weight: 4 }, { arbitrary: fc.integer({ min: 20, max: 60 }), weight: 1 }),
   workType: fc.constantFrom(...WORK_TYPES),
   energized: fc.boolean(),
   voltageKv: fc.option(fc.constantFrom(0.024, 0.05, 0.24, 0.6, 0.61, 12.47), { nil: null }),
   exception: fc.option(fc.constantFrom(...EXCEPTIONS), { nil: null }),
   minCrew: fc.option(fc.integer({ min: 1, max: 4 }), { nil: null }),
   driverLicence: fc.constantFrom("cdl_a" as const, "cdl_b" as const),
+  // Corrections 2, 6, 7: nearby voltage, shifts (offset and length in hours inside the span), digging and tickets.
+  nearEnergizedKv: fc.option(fc.constantFrom(0.24, 0.6, 0.61, 7.2, 12.47), { nil: null }),
+  shifts: fc.option(fc.array(fc.tuple(fc.nat({ max: 60 }), fc.integer({ min: 1, max: 18 })), { minLength: 1, maxLength: 3 }), { nil: undefined }),
+  digs: fc.boolean(),
+  locate: fc.option(fc.record({ ticket: fc.constantFrom("T1", "T2"), validThrough: fc.constantFrom("2027-04-05", "2027-04-06", "2027-04-07", "2027-04-08", "2027-04-09") }), { nil: null }),
 });
+
+type OrderRecord = typeof orderArb extends fc.Arbitrary<infer R> ? R : never;
+
+/** An order from orderArb's record: shifts are clipped into the order's span. */
+function toOrder(o: OrderRecord, id: string, title: string): WorkOrder {
+  const start = BASE + o.startH * H;
+  const end = start + o.len * H;
+  const shifts = o.shifts?.map(([off, len]) => {
+    const s = start + (off % o.len) * H;
+    return { start: s, end: Math.min(end, s + len * H) };
+  });
+  return {
+    id,
+    title,
+    start,
+    end,
+    startDate: epochToZonedDate(start, TZ),
+    endDate: epochToZonedDate(end, TZ),
+    workType: o.workType,
+    energized: o.energized,
+    voltageKv: o.voltageKv,
+    exception: o.exception,
+    minCrew: o.minCrew,
+    driverLicence: o.driverLicence,
+    nearEnergizedKv: o.nearEnergizedKv,
+    ...(shifts ? { shifts } : {}),
+    digs: o.digs,
+    locate: o.locate,
+  };
+}
 
 const assignmentArb = fc.record({ o: fc.nat(), w: fc.nat(), position: fc.constantFrom(...POSITIONS) });
 
@@ -62,24 +98,7 @@ const snapshotArb: fc.Arbitrary<DaySnapshot> = fc
   })
   .map((r) => {
     const workers: Worker[] = r.workers.map((w, i) => ({ id: `w${i}`, name: `Worker ${i}`, ...w }));
-    const workOrders: WorkOrder[] = r.orders.map((o, i) => {
-      const start = BASE + o.startH * H;
-      const end = start + o.len * H;
-      return {
-        id: `o${i}`,
-        title: `Order ${i}`,
-        start,
-        end,
-        startDate: epochToZonedDate(start, TZ),
-        endDate: epochToZonedDate(end, TZ),
-        workType: o.workType,
-        energized: o.energized,
-        voltageKv: o.voltageKv,
-        exception: o.exception,
-        minCrew: o.minCrew,
-        driverLicence: o.driverLicence,
-      };
-    });
+    const workOrders: WorkOrder[] = r.orders.map((o, i) => toOrder(o, `o${i}`, `Order ${i}`));
     const assignments: Assignment[] = r.assignments.map((a) => ({
       workOrderId: workOrders[a.o % workOrders.length].id,
       workerId: workers[a.w % workers.length].id,
@@ -126,7 +145,7 @@ describe("crew rules: properties", () => {
             unavailable: shuffle(w.unavailable, rnd),
             timeRecords: shuffle(w.timeRecords, rnd),
           })),
-          workOrders: shuffle(s.workOrders, rnd),
+          workOrders: shuffle(s.workOrders, rnd).map((o) => (o.shifts ? { ...o, shifts: shuffle(o.shifts, rnd) } : o)),
           assignments: shuffle(s.assignments, rnd),
         };
         expect(checkDay(permuted)).toEqual(checkDay(s));
@@ -139,21 +158,7 @@ describe("crew rules: properties", () => {
     fc.assert(
       fc.property(snapshotArb, fc.array(workerArb, { maxLength: 4 }), orderArb, fc.array(fc.constantFrom(...POSITIONS), { maxLength: 6 }), (s, extraWorkers, o, positions) => {
         const newWorkers: Worker[] = extraWorkers.map((w, i) => ({ id: `x${i}`, name: `Extra ${i}`, ...w }));
-        const start = BASE + o.startH * H;
-        const newOrder: WorkOrder = {
-          id: "o-new",
-          title: "Unrelated",
-          start,
-          end: start + o.len * H,
-          startDate: epochToZonedDate(start, TZ),
-          endDate: epochToZonedDate(start + o.len * H, TZ),
-          workType: o.workType,
-          energized: o.energized,
-          voltageKv: o.voltageKv,
-          exception: o.exception,
-          minCrew: o.minCrew,
-          driverLicence: o.driverLicence,
-        };
+        const newOrder: WorkOrder = toOrder(o, "o-new", "Unrelated");
         const newAssignments: Assignment[] =
           newWorkers.length === 0 ? [] : positions.map((position, i) => ({ workOrderId: "o-new", workerId: newWorkers[i % newWorkers.length].id, position }));
         const grown: DaySnapshot = {
