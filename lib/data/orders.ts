@@ -1,6 +1,7 @@
 // Work orders on Knex: list, read, create, update, cancel. Times are stored UTC; the API and
 // forms speak wall-clock time in the yard's zone (zonedWallTimeToEpoch / epochToZonedWallTime).
 import type { Knex } from "knex";
+import { assertNoDoubleBooking } from "./double-booking";
 import { ApiError } from "@/lib/api/http";
 import { audit, type Actor } from "@/lib/data/audit";
 import { boardEvent } from "@/lib/data/events";
@@ -497,6 +498,10 @@ export async function updateOrder(trx: Knex.Transaction, actor: Actor, id: numbe
   const changed: string[] = CHANGE_KEYS.filter((k) => JSON.stringify(before[k] ?? null) !== JSON.stringify(merged[k] ?? null));
   if (positionsChanged) changed.push("positions");
   if (changed.length === 0) return current; // nothing to write: no new version, audit row or event
+  // New times or a cancelled order brought back: its crew may not be elsewhere then.
+  if (changed.some((k) => k === "start" || k === "end" || k === "status" || k === "yardId")) {
+    await assertNoDoubleBooking(trx, id, { startMs: start, endMs: end, status: merged.status });
+  }
   await trx("work_orders")
     .where({ id })
     .update({

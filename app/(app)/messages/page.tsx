@@ -1,5 +1,6 @@
 import Link from "next/link";
 import { requirePageRole } from "@/lib/auth/session";
+import { contactWorkerIds } from "@/lib/auth/yard-scope";
 import { db } from "@/lib/db";
 import { listMessages, messageWorkers, unmatchedReplies, type MessageRow } from "@/lib/data/messages";
 import { messagesFilterSchema } from "@/lib/validation/notify";
@@ -37,11 +38,16 @@ export default async function MessagesPage({ searchParams }: { searchParams: Pro
   const user = await requirePageRole("dispatcher", "supervisor");
   const sp = await searchParams;
   const f = messagesFilterSchema.parse(sp);
-  const [rows, unmatched, workers] = await Promise.all([
+  const [allRows, allUnmatched, allWorkers, mine] = await Promise.all([
     listMessages(db(), user.organisationId, f),
     unmatchedReplies(db(), user.organisationId),
     messageWorkers(db(), user.organisationId),
+    contactWorkerIds(user),
   ]);
+  // A dispatcher sees the texts of their own yards' workers only (and replies from unknown numbers).
+  const rows = mine ? allRows.filter((r) => r.workerId === null || mine.has(Number(r.workerId))) : allRows;
+  const workers = mine ? allWorkers.filter((w) => mine.has(Number(w.id))) : allWorkers;
+  const unmatched = mine ? allUnmatched.filter((r) => r.workerId === null || mine.has(Number(r.workerId))) : allUnmatched;
   const failed = rows.filter((r) => r.direction === "out" && r.state === "failed").length;
   const waiting = rows.filter((r) => r.direction === "out" && (r.state === "queued" || r.state === "sending")).length;
   const filtered = Boolean(f.channel || f.state || f.worker || f.day);

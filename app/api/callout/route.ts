@@ -1,5 +1,6 @@
 import { db } from "@/lib/db";
 import { ApiError, handler, json, readJson, readQuery } from "@/lib/api/http";
+import { contactWorkerIds, yardScope } from "@/lib/auth/yard-scope";
 import { requireRole } from "@/lib/auth/session";
 import { CAN_DISPATCH } from "@/lib/auth/roles";
 import { createAssignment, findingsAfter } from "@/lib/data/assignments";
@@ -32,10 +33,15 @@ async function seatContext(organisationId: number, positionId: number) {
 export const GET = handler(async (req) => {
   const user = await requireRole(...CAN_DISPATCH);
   const q = readQuery(req, calloutQuerySchema);
+  await yardScope(user, "edit", { positionId: q.positionId });
   const { seat, yard } = await seatContext(user.organisationId, q.positionId);
   if (!CALLOUT_STATUSES.has(seat.status)) throw new ApiError(409, `${seat.number} is ${seat.status}; its crew can no longer change.`);
   const { problem, meta } = await loadFillProblem(db(), { organisationId: user.organisationId, yard, day: seat.work_date, orderIds: [seat.order_id], statuses: CALLOUT_STATUSES });
   const list = calloutList(problem, String(seat.order_id), String(seat.id));
+  // Numbers of other yards' workers are not shown (issue 15, finding 9): ask their dispatcher.
+  const mine = await contactWorkerIds(user);
+  const phoneFor = (e: { workerId: string | number; phone?: string | null }) =>
+    mine && !mine.has(Number(e.workerId)) ? { phone: null, contactHidden: true } : {};
   const num = (id: string | null) => (id === null ? null : Number(id));
   return json({
     orderId: seat.order_id,
@@ -45,8 +51,8 @@ export const GET = handler(async (req) => {
     day: seat.work_date,
     yard: yard.code,
     heldBy: list.heldBy === null ? null : { workerId: Number(list.heldBy), name: meta.workers.get(list.heldBy)?.name ?? null },
-    eligible: list.eligible.map((e) => ({ ...e, workerId: Number(e.workerId) })),
-    nearMisses: list.nearMisses.map((n) => ({ ...n, workerId: Number(n.workerId) })),
+    eligible: list.eligible.map((e) => ({ ...e, workerId: Number(e.workerId), ...phoneFor(e) })),
+    nearMisses: list.nearMisses.map((n) => ({ ...n, workerId: Number(n.workerId), ...phoneFor(n) })),
     nearMissCount: list.nearMissCount,
     summary: list.summary,
     declinedBy: num(problem.orders[0]?.seats.find((s) => s.positionId === String(seat.id))?.declinedBy ?? null),
@@ -60,6 +66,7 @@ export const GET = handler(async (req) => {
 export const POST = handler(async (req) => {
   const user = await requireRole(...CAN_DISPATCH);
   const input = await readJson(req, calloutPlaceSchema);
+  await yardScope(user, "edit", { positionId: input.positionId });
   const { seat, yard } = await seatContext(user.organisationId, input.positionId);
   const placed = await createAssignment(db(), user, { positionId: input.positionId, workerId: input.workerId });
   const recheck = await findingsAfter(db(), user.organisationId, placed.orderIds, placed.workerIds);

@@ -1,5 +1,6 @@
 import { db } from "@/lib/db";
 import { ApiError, handler, json, readJson } from "@/lib/api/http";
+import { yardScope } from "@/lib/auth/yard-scope";
 import { requireRole } from "@/lib/auth/session";
 import { CAN_DISPATCH } from "@/lib/auth/roles";
 import { pickYard } from "@/lib/data/yards";
@@ -18,6 +19,7 @@ export const maxDuration = 120;
 export const POST = handler(async (req) => {
   const user = await requireRole(...CAN_DISPATCH);
   const input = await readJson(req, fillRequestSchema);
+  await yardScope(user, "edit", { yardCode: input.yard });
   const { yard } = await pickYard(db(), user.organisationId, input.yard);
   if (!yard || yard.code.toLowerCase() !== input.yard.toLowerCase()) throw new ApiError(404, `No yard with code ${input.yard}.`);
   const { problem, meta } = await loadFillProblem(db(), { organisationId: user.organisationId, yard, day: input.date });

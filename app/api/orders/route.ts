@@ -1,5 +1,6 @@
 import { db } from "@/lib/db";
 import { handler, json, readJson, readQuery } from "@/lib/api/http";
+import { yardScope } from "@/lib/auth/yard-scope";
 import { requireRole } from "@/lib/auth/session";
 import { createOrder, getOrder, listOrders } from "@/lib/data/orders";
 import { listYards } from "@/lib/data/yards";
@@ -41,6 +42,7 @@ export const GET = handler(async (req) => {
 export const POST = handler(async (req) => {
   const user = await requireRole("dispatcher", "supervisor");
   const input = await readJson(req, orderInputSchema);
+  await yardScope(user, "edit", { yardId: input.yardId });
   const result = await db().transaction(async (trx) => {
     if (input.recurrence) {
       const s = await createSeries(trx, user, input);

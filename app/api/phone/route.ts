@@ -2,7 +2,8 @@ import { randomBytes } from "node:crypto";
 import { db } from "@/lib/db";
 import { audit } from "@/lib/data/audit";
 import { ApiError, handler, json, readJson, readQuery } from "@/lib/api/http";
-import { requireRole } from "@/lib/auth/session";
+import { requireRole, type SessionUser } from "@/lib/auth/session";
+import { yardScope } from "@/lib/auth/yard-scope";
 import { fakesEnabled, inboundWebhookUrl, smsFakeBase } from "@/lib/notify/config";
 import { phoneQuerySchema, phoneReplySchema } from "@/lib/validation/notify";
 
@@ -24,16 +25,18 @@ async function fake(path: string, init?: RequestInit) {
   }
 }
 
-async function ownPhone(organisationId: number, phone: string) {
-  const w = await db()("workers").where({ organisation_id: organisationId, phone_e164: phone }).first("id");
+async function ownPhone(user: SessionUser, phone: string) {
+  const w = await db()("workers").where({ organisation_id: user.organisationId, phone_e164: phone }).first("id");
   if (!w) throw new ApiError(404, "No worker in your organisation has that phone number.");
+  // A phone's texts are contact details: only for the worker's own yard's dispatchers.
+  await yardScope(user, "contact", { workerId: Number(w.id) });
 }
 
 export const GET = handler(async (req) => {
   const user = await requireRole(...ROLES);
   if (!fakesEnabled()) throw new ApiError(404, "The phone simulator is off (it needs FAKES_ENABLED=1 and an app served on loopback only).");
   const { phone } = readQuery(req, phoneQuerySchema);
-  await ownPhone(user.organisationId, phone);
+  await ownPhone(user, phone);
   const body = await fake(`/_fake/messages?phone=${encodeURIComponent(phone)}`);
   return json({ phone, messages: body.messages ?? [] });
 });
@@ -42,7 +45,7 @@ export const POST = handler(async (req) => {
   const user = await requireRole(...ROLES);
   if (!fakesEnabled()) throw new ApiError(404, "The phone simulator is off (it needs FAKES_ENABLED=1 and an app served on loopback only).");
   const input = await readJson(req, phoneReplySchema);
-  await ownPhone(user.organisationId, input.from);
+  await ownPhone(user, input.from);
   // Our own message id, so the reply the webhook stores can be tied to who typed it.
   const messageSid = `SMsim${randomBytes(14).toString("hex")}`;
   const body = await fake("/_fake/inbound", {

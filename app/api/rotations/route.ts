@@ -1,5 +1,6 @@
 import { db } from "@/lib/db";
 import { handler, json, readJson } from "@/lib/api/http";
+import { yardScope } from "@/lib/auth/yard-scope";
 import { requireRole } from "@/lib/auth/session";
 import { createRotation, listRotations } from "@/lib/data/rotations";
 import { rotationSchema } from "@/lib/validation/rotation";
@@ -14,6 +15,7 @@ export const GET = handler(async () => {
 export const POST = handler(async (req) => {
   const user = await requireRole("dispatcher", "supervisor");
   const input = await readJson(req, rotationSchema);
+  await yardScope(user, "edit", { yardId: input.yardId });
   const id = await db().transaction((trx) => createRotation(trx, user, input));
   const [rotation] = await listRotations(db(), user.organisationId, { id });
   return json(rotation, 201);

@@ -1,5 +1,6 @@
 import { db } from "@/lib/db";
 import { handler, json, readJson } from "@/lib/api/http";
+import { yardScope } from "@/lib/auth/yard-scope";
 import { requireRole } from "@/lib/auth/session";
 import { CAN_DISPATCH } from "@/lib/auth/roles";
 import { sendCrewsSchema } from "@/lib/validation/notify";
@@ -11,5 +12,6 @@ export const dynamic = "force-dynamic";
 export const POST = handler(async (req) => {
   const user = await requireRole(...CAN_DISPATCH);
   const input = await readJson(req, sendCrewsSchema);
+  await yardScope(user, "edit", { yardCode: input.yard });
   return json(await sendCrews(db(), user, input));
 });

@@ -1,5 +1,6 @@
 import { db, transact } from "@/lib/db";
 import { ApiError, handler, json, readJson, readQuery } from "@/lib/api/http";
+import { yardScope } from "@/lib/auth/yard-scope";
 import { requireRole } from "@/lib/auth/session";
 import { createManualRecord, workerWeek } from "@/lib/data/time-records";
 import { manualTimeRecordSchema, timeQuerySchema } from "@/lib/validation/time-record";
@@ -25,6 +26,7 @@ export const GET = handler(async (req) => {
 export const POST = handler(async (req) => {
   const user = await requireRole("dispatcher", "supervisor", "hr");
   const input = await readJson(req, manualTimeRecordSchema);
+  await yardScope(user, "edit", { workerId: input.workerId });
   const id = await transact(db(), (trx) => createManualRecord(trx, user, input), { isolationLevel: "repeatable read", what: "time record" });
   return json({ id }, 201);
 });

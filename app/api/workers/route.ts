@@ -1,6 +1,7 @@
 import { db } from "@/lib/db";
 import { handler, json, readJson, readQuery } from "@/lib/api/http";
 import { requireRole } from "@/lib/auth/session";
+import { hideForeignContacts } from "@/lib/auth/yard-scope";
 import { createWorker, listWorkers } from "@/lib/data/workers";
 import { workerQuerySchema, workerSchema } from "@/lib/validation/worker";
 
@@ -13,7 +14,9 @@ export const GET = handler(async (req) => {
     yardCode: q.yard,
     activeOnly: q.active === "true",
   });
-  return json({ workers: q.active === "false" ? workers.filter((w) => !w.active) : workers });
+  // Contact details only for the reader's own yards (dispatchers); the roster itself is shared.
+  const shown = await hideForeignContacts(user, q.active === "false" ? workers.filter((w) => !w.active) : workers);
+  return json({ workers: shown });
 });
 
 export const POST = handler(async (req) => {

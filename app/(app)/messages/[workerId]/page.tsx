@@ -1,6 +1,7 @@
 import Link from "next/link";
-import { notFound } from "next/navigation";
+import { notFound, redirect } from "next/navigation";
 import { requirePageRole } from "@/lib/auth/session";
+import { contactWorkerIds } from "@/lib/auth/yard-scope";
 import { db } from "@/lib/db";
 import { workerThread } from "@/lib/data/messages";
 import { formatPhone } from "@/lib/notify/messages";
@@ -17,6 +18,9 @@ export default async function ThreadPage({ params }: { params: Promise<{ workerI
   const { workerId } = await params;
   const id = Number(workerId);
   if (!Number.isInteger(id) || id <= 0) notFound();
+  // Another yard's worker: their texts and number are not this dispatcher's to read.
+  const mine = await contactWorkerIds(user);
+  if (mine && !mine.has(id)) redirect("/forbidden?from=/messages");
   const thread = await workerThread(db(), user.organisationId, id);
   if (!thread) notFound();
   const { worker: w, items } = thread;

@@ -1,5 +1,6 @@
 import { db } from "@/lib/db";
 import { ApiError, handler, json, readJson } from "@/lib/api/http";
+import { yardScope } from "@/lib/auth/yard-scope";
 import { requireRole } from "@/lib/auth/session";
 import { CAN_DISPATCH } from "@/lib/auth/roles";
 import { audit } from "@/lib/data/audit";
@@ -16,6 +17,7 @@ export const dynamic = "force-dynamic";
 export const POST = handler(async (req) => {
   const user = await requireRole(...CAN_DISPATCH);
   const input = await readJson(req, fillAcceptSchema);
+  await yardScope(user, "edit", { yardCode: input.yard });
   const { yard } = await pickYard(db(), user.organisationId, input.yard);
   if (!yard || yard.code.toLowerCase() !== input.yard.toLowerCase()) throw new ApiError(404, `No yard with code ${input.yard}.`);
 

@@ -1,6 +1,7 @@
 import { db } from "@/lib/db";
 import { idParam } from "@/lib/api/ids";
 import { ApiError, handler, json, readJson } from "@/lib/api/http";
+import { yardScope } from "@/lib/auth/yard-scope";
 import { requireRole } from "@/lib/auth/session";
 import { listOrders, parseJson, seriesView } from "@/lib/data/orders";
 import { endSeries, updateSeries } from "@/lib/orders/series";
@@ -26,6 +27,7 @@ export const PATCH = handler<Params>(async (req, ctx) => {
   const user = await requireRole("dispatcher", "supervisor");
   const id = await idOf(ctx);
   const input = await readJson(req, seriesEditSchema);
+  await yardScope(user, "edit", { seriesId: id });
   const result = await db().transaction((trx) => updateSeries(trx, user, id, input));
   return json(result);
 });
@@ -34,6 +36,7 @@ export const PATCH = handler<Params>(async (req, ctx) => {
 export const DELETE = handler<Params>(async (_req, ctx) => {
   const user = await requireRole("dispatcher", "supervisor");
   const id = await idOf(ctx);
+  await yardScope(user, "edit", { seriesId: id });
   const result = await db().transaction((trx) => endSeries(trx, user, id));
   return json(result);
 });

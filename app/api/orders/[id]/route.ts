@@ -2,6 +2,7 @@ import { z } from "zod";
 import { db } from "@/lib/db";
 import { idParam } from "@/lib/api/ids";
 import { ApiError, handler, json, readJson, readQuery } from "@/lib/api/http";
+import { yardScope } from "@/lib/auth/yard-scope";
 import { requireRole } from "@/lib/auth/session";
 import { cancelOrder, getOrder, updateOrder } from "@/lib/data/orders";
 import { orderPatchSchema } from "@/lib/validation/order";
@@ -23,6 +24,7 @@ export const PATCH = handler<Params>(async (req, ctx) => {
   const user = await requireRole("dispatcher", "supervisor");
   const id = await idOf(ctx);
   const patch = await readJson(req, orderPatchSchema);
+  await yardScope(user, "edit", { orderId: id, yardId: patch.yardId });
   const order = await db().transaction((trx) => updateOrder(trx, user, id, patch));
   return json(order);
 });
@@ -32,6 +34,7 @@ export const DELETE = handler<Params>(async (req, ctx) => {
   const user = await requireRole("dispatcher", "supervisor");
   const id = await idOf(ctx);
   const { version } = readQuery(req, z.object({ version: z.coerce.number().int().positive().optional() }));
+  await yardScope(user, "edit", { orderId: id });
   const order = await db().transaction((trx) => cancelOrder(trx, user, id, version));
   return json(order);
 });

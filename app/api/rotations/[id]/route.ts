@@ -1,6 +1,7 @@
 import { db } from "@/lib/db";
 import { idParam } from "@/lib/api/ids";
 import { ApiError, handler, json, readJson } from "@/lib/api/http";
+import { yardScope } from "@/lib/auth/yard-scope";
 import { requireRole } from "@/lib/auth/session";
 import { deleteRotation, listRotations, updateRotation } from "@/lib/data/rotations";
 import { rotationPatchSchema } from "@/lib/validation/rotation";
@@ -21,6 +22,7 @@ export const PATCH = handler<Params>(async (req, ctx) => {
   const user = await requireRole("dispatcher", "supervisor");
   const id = await idOf(ctx);
   const patch = await readJson(req, rotationPatchSchema);
+  await yardScope(user, "edit", { rotationId: id, yardId: patch.yardId });
   await db().transaction((trx) => updateRotation(trx, user, id, patch));
   const [rotation] = await listRotations(db(), user.organisationId, { id });
   return json(rotation);
@@ -30,6 +32,7 @@ export const PATCH = handler<Params>(async (req, ctx) => {
 export const DELETE = handler<Params>(async (_req, ctx) => {
   const user = await requireRole("dispatcher", "supervisor");
   const id = await idOf(ctx);
+  await yardScope(user, "edit", { rotationId: id });
   await db().transaction((trx) => deleteRotation(trx, user, id));
   return json({ deleted: id });
 });

@@ -1,6 +1,7 @@
 import { db } from "@/lib/db";
 import { idParam } from "@/lib/api/ids";
 import { handler, json } from "@/lib/api/http";
+import { yardScope } from "@/lib/auth/yard-scope";
 import { requireRole } from "@/lib/auth/session";
 import { deleteRecord } from "@/lib/data/time-records";
 
@@ -10,6 +11,7 @@ type Params = { id: string };
 export const DELETE = handler<Params>(async (_req, ctx) => {
   const user = await requireRole("dispatcher", "supervisor", "hr");
   const id = idParam((await ctx.params).id, "time record");
+  await yardScope(user, "edit", { timeRecordId: id });
   await db().transaction((trx) => deleteRecord(trx, user, id));
   return json({ deleted: id });
 });

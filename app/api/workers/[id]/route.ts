@@ -2,6 +2,7 @@ import { db } from "@/lib/db";
 import { ApiError, handler, json, readJson } from "@/lib/api/http";
 import { idParam } from "@/lib/api/ids";
 import { requireRole } from "@/lib/auth/session";
+import { hideForeignContacts } from "@/lib/auth/yard-scope";
 import { getWorker, updateWorker } from "@/lib/data/workers";
 import { workerPatchSchema } from "@/lib/validation/worker";
 
@@ -14,7 +15,8 @@ export const GET = handler<P>(async (_req, ctx) => {
   if (user.role === "lineworker" && user.workerId !== id) throw new ApiError(403, "You can only open your own record.");
   const worker = await getWorker(db(), user.organisationId, id);
   if (!worker) throw new ApiError(404, "No such worker.");
-  return json({ worker });
+  const [shown] = await hideForeignContacts(user, [worker]);
+  return json({ worker: shown });
 });
 
 // PATCH: hr, admin; `version` must be the one the editor loaded (409 with the current record otherwise).

@@ -1,6 +1,7 @@
 import { db } from "@/lib/db";
 import { idParam } from "@/lib/api/ids";
 import { handler, json } from "@/lib/api/http";
+import { yardScope } from "@/lib/auth/yard-scope";
 import { requireRole } from "@/lib/auth/session";
 import { CAN_DISPATCH } from "@/lib/auth/roles";
 import { resendAssignment } from "@/lib/notify/send";
@@ -9,5 +10,6 @@ import { resendAssignment } from "@/lib/notify/send";
 export const POST = handler<{ id: string }>(async (_req, ctx) => {
   const user = await requireRole(...CAN_DISPATCH);
   const id = idParam((await ctx.params).id, "assignment");
+  await yardScope(user, "edit", { assignmentId: id });
   return json(await resendAssignment(db(), user, id), 201);
 });

@@ -1,6 +1,7 @@
 import { db } from "@/lib/db";
 import { handler, json, readJson } from "@/lib/api/http";
 import { idParam } from "@/lib/api/ids";
+import { yardScope } from "@/lib/auth/yard-scope";
 import { requireRole } from "@/lib/auth/session";
 import { CAN_DISPATCH } from "@/lib/auth/roles";
 import { holdOrder, liftHold, loadBriefing } from "@/lib/data/briefings";
@@ -25,6 +26,7 @@ export const DELETE = handler<P>(async (req, ctx) => {
   const user = await requireRole(...CAN_DISPATCH);
   const orderId = idParam((await ctx.params).orderId, "work order");
   const input = await readJson(req, briefingLiftSchema);
+  await yardScope(user, "edit", { orderId });
   const result = await liftHold(db(), user, orderId, input);
   return json({ result, mode: "viewer", me: null, ...(await loadBriefing(db(), user.organisationId, orderId)) });
 });

@@ -3,6 +3,7 @@ import { db } from "@/lib/db";
 import { idParam } from "@/lib/api/ids";
 import { ApiError, handler, json, readJson } from "@/lib/api/http";
 import { requireRole } from "@/lib/auth/session";
+import { yardScope } from "@/lib/auth/yard-scope";
 import { CAN_DISPATCH } from "@/lib/auth/roles";
 import { markHandled } from "@/lib/data/messages";
 
@@ -13,6 +14,7 @@ export const PATCH = handler<{ id: string }>(async (req, ctx) => {
   const user = await requireRole(...CAN_DISPATCH);
   const id = idParam((await ctx.params).id, "message");
   await readJson(req, body);
+  await yardScope(user, "contact", { inboundMessageId: id });
   const r = await markHandled(db(), user, id);
   if (!r) throw new ApiError(404, "No such message.");
   return json(r);
