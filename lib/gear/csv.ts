@@ -1,3 +1,4 @@
+import { unguardCell } from "@/lib/csv";
 import Papa from "papaparse";
 import {
   GEAR_CSV_ALIASES,
@@ -30,7 +31,7 @@ const norm = (h: string) => h.replace(/^\uFEFF/, "").trim().toLowerCase().replac
  * a cell starting with = + - @ tab or CR) reads back as what it was.
  */
 export function unguard(cell: string): string {
-  return /^'[=+\-@\t\r]/.test(cell) ? cell.slice(1) : cell;
+  return unguardCell(cell);
 }
 
 export function parseGearCsv(text: string): { rows: RawGearRow[]; issues: GearIssue[]; ignoredColumns: string[] } {

@@ -1,4 +1,5 @@
 import Papa from "papaparse";
+import { CSV_FORMULA } from "@/lib/csv";
 import {
   IMPORT_ALIASES,
   IMPORT_COLUMNS,
@@ -74,8 +75,9 @@ export function credentialExportCsv(rows: ExportRow[]): string {
         r.verifiedAt ?? "",
       ]),
     },
-    // Cells starting with = + - @ are prefixed so a spreadsheet does not run them (CSV injection).
-    { escapeFormulae: true, newline: "\r\n" },
+    // Cells a spreadsheet would run (= + - @ after any leading whitespace or line break) are
+    // prefixed with "'" (CSV injection; lib/csv.ts).
+    { escapeFormulae: CSV_FORMULA, newline: "\r\n" },
   );
   return "\uFEFF" + csv + "\r\n";
 }

@@ -1,5 +1,6 @@
 import Papa from "papaparse";
 import { db } from "@/lib/db";
+import { CSV_FORMULA } from "@/lib/csv";
 import { handler, readQuery } from "@/lib/api/http";
 import { requireRole } from "@/lib/auth/session";
 import { listGear } from "@/lib/gear/data";
@@ -33,7 +34,7 @@ export const GET = handler(async (req) => {
     },
     // Cells starting with = + - @ are prefixed so a spreadsheet does not run them (CSV injection);
     // the import reads our own prefix back.
-    { escapeFormulae: true, newline: "\r\n" },
+    { escapeFormulae: CSV_FORMULA, newline: "\r\n" }, // lib/csv.ts: also after leading whitespace or line breaks
   );
   const view = f.view && f.view !== "all" ? `-${f.view}` : "";
   return new Response("\uFEFF" + csv + "\r\n", {
