@@ -1,10 +1,9 @@
-// How an order's voltage reads on cards, lists and the order page. Pure and client-safe.
-//
-// A single-phase tap is entered by its voltage to ground (`phases: 1`, e.g. 7.2 kV) and the
-// phase-to-phase voltage of the wye system it comes off (`systemKv`, e.g. 12.47 kV); the trade
-// writes that system as "12.47Y/7.2 kV" (phase-to-phase "Y" phase-to-ground, the way nominal
-// system voltages are written: 12470Y/7200 V, 24940Y/14400 V — recalled from memory).
-// ../shared/CREW-CHECK.md, Corrections 8.
+// How an order reads on cards, lists and the order page: its voltage and whether it is live.
+// Pure and client-safe. The voltage label itself is the rules' own (lib/rules/labels.ts), so the
+// board, the findings and the order page write a tap the same way: a single-phase tap entered as
+// phases 1 at 7.2 kV on a 12.47 kV system reads "12.47Y/7.2 kV" (../shared/CREW-CHECK.md,
+// Corrections 8).
+import { kvNumber, voltageLabel as rulesVoltageLabel } from "@/lib/rules/labels";
 
 export interface VoltageFacts {
   voltageKv: number | null;
@@ -12,22 +11,13 @@ export interface VoltageFacts {
   systemKv?: number | null;
 }
 
-/** 12.47 → "12.47", 7.200 → "7.2", 0.24 → "0.24": at most three decimals, no trailing zeros. */
-export function kvText(kv: number): string {
-  return String(Math.round(kv * 1000) / 1000);
-}
-
-/**
- * "12.47 kV" for a three-phase order; "12.47Y/7.2 kV" for a single-phase tap with its system
- * voltage; "7.2 kV single-phase" when the system is not given; null when the voltage is unknown.
- */
+/** "12.47 kV", "12.47Y/7.2 kV", "240 V"; null when the voltage is unknown. */
 export function voltageLabel(o: VoltageFacts): string | null {
   if (o.voltageKv === null || o.voltageKv === undefined || !Number.isFinite(o.voltageKv)) return null;
-  const v = kvText(o.voltageKv);
-  if (o.phases !== 1) return `${v} kV`;
-  if (o.systemKv !== null && o.systemKv !== undefined && Number.isFinite(o.systemKv) && o.systemKv > o.voltageKv)
-    return `${kvText(o.systemKv)}Y/${v} kV`;
-  return `${v} kV single-phase`;
+  const phases = o.phases === 1 ? 1 : 3;
+  // A system voltage at or below the tap's own is not a wye system: fall back to voltage × √3.
+  const system = o.systemKv != null && o.systemKv > o.voltageKv ? o.systemKv : null;
+  return rulesVoltageLabel(o.voltageKv, phases, system);
 }
 
 /** "energized 12.47Y/7.2 kV", "energized, voltage unknown", or "de-energized" with what is live nearby. */
@@ -37,6 +27,6 @@ export function energyLabel(o: VoltageFacts & { energized: boolean; nearEnergize
     return label ? `energized ${label}` : "energized, voltage unknown";
   }
   if (o.nearEnergizedKv !== null && o.nearEnergizedKv !== undefined && o.nearEnergizedKv > 0)
-    return `de-energized, ${kvText(o.nearEnergizedKv)} kV energized nearby`;
+    return `de-energized, ${kvNumber(o.nearEnergizedKv)} kV energized nearby`;
   return "de-energized";
 }
