@@ -30,6 +30,7 @@ const TABLES = [
   "unavailability",
   "inbound_messages",
   "notifications",
+  "equipment",
 ] as const;
 
 export interface Built {
@@ -192,6 +193,32 @@ export async function buildFixtures(db: Knex, opts: { firstOffset?: number } = {
     const [id] = await db("qualification_types").insert({ organisation_id: orgId, code: `rm_${uniq()}`, name: "Route matrix spare", renewal_months: 12, warn_days: 30 });
     return Number(id);
   };
+  // Issue 16: trucks, rigging and bookings of the run's own.
+  const truck = async () => {
+    const [id] = await db("equipment").insert({
+      organisation_id: orgId,
+      yard_id: yard.id,
+      kind: "bucket_truck",
+      unit_number: `RM-${uniq()}`,
+      name: "Route matrix bucket",
+      insulated: true,
+      dielectric_tested_on: addDays(today, -30),
+      annual_inspection_on: addDays(today, -30),
+      licence: "cdl_b",
+    });
+    return { id: Number(id), version: 1 };
+  };
+  const riggingItem = async () => {
+    const t = await truck();
+    const [itemId] = await db("equipment_rigging").insert({ equipment_id: t.id, kind: "hand_line", label: "Route matrix hand line", wll_lb: 450, inspected_on: addDays(today, -10) });
+    return { equipmentId: t.id, itemId: Number(itemId) };
+  };
+  const booking = async () => {
+    const s = await seat();
+    const t = await truck();
+    const [id] = await db("equipment_assignments").insert({ work_order_id: s.orderId, equipment_id: t.id });
+    return { id: Number(id), version: 1 };
+  };
   const pendingCredential = async () => {
     // One pending record per worker and type (credentials_slot_unique): a type of its own each time.
     const [id] = await db("credentials").insert({ worker_id: worker.id, qualification_type_id: await qualType(), issued_on: pastDay(), expires_on: null, status: "pending" });
@@ -279,6 +306,9 @@ export async function buildFixtures(db: Knex, opts: { firstOffset?: number } = {
     unavailability,
     pendingCredential,
     qualType,
+    truck,
+    riggingItem,
+    booking,
     orderBody,
     pdf: () => minimalPdf(`Route matrix ${uniq()}`),
     png: () => tinyPng(),
@@ -320,6 +350,8 @@ export async function buildFixtures(db: Knex, opts: { firstOffset?: number } = {
     await above("order_series").delete();
     await above("files").delete();
     await above("qualification_types").delete();
+    await db("equipment_assignments").whereIn("equipment_id", above("equipment").select("id")).delete();
+    await above("equipment").delete();
     const workers = await above("workers").pluck("id");
     if (workers.length) {
       await db("assignments").whereIn("worker_id", workers).delete();

@@ -84,6 +84,12 @@ export interface Fx {
   unavailability: (workerId: number, status: "requested" | "approved") => Promise<number>;
   pendingCredential: () => Promise<number>;
   qualType: () => Promise<number>;
+  /** Issue 16: a fresh in-service bucket truck of the fixture's yard (version 1). */
+  truck: () => Promise<{ id: number; version: number }>;
+  /** A fresh rigging item on a fresh truck. */
+  riggingItem: () => Promise<{ equipmentId: number; itemId: number }>;
+  /** A fresh truck booked on a fresh order (booking version 1). */
+  booking: () => Promise<{ id: number; version: number }>;
   orderBody: (day?: string) => Record<string, unknown>;
   pdf: () => Uint8Array;
   png: () => Uint8Array;
@@ -124,6 +130,90 @@ const form = (fields: Record<string, string | undefined>, file: Uint8Array, name
 const wall = (day: string, hm: string) => `${day}T${hm}`;
 
 export const ROUTES: RouteEntry[] = [
+  // --- equipment (issue 16) ----------------------------------------------------------------
+  {
+    method: "GET",
+    route: "/api/equipment",
+    roles: ALL_ROLES,
+    status: 200,
+    fuzz: "query",
+    sample: (fx) => ({ path: `/api/equipment?yard=${fx.yard.code}&kind=bucket_truck` }),
+  },
+  {
+    method: "POST",
+    route: "/api/equipment",
+    roles: DA,
+    status: 201,
+    audit: true,
+    fuzz: "json",
+    sample: (fx) => ({
+      path: "/api/equipment",
+      body: { yardId: fx.yard.id, kind: "pickup", unitNumber: `RM-${fx.uniq()}`, name: "Route matrix pickup", insulated: false, dielectricTestedOn: null, annualInspectionOn: fx.pastDay(), licence: null },
+    }),
+  },
+  {
+    method: "GET",
+    route: "/api/equipment/[id]",
+    roles: ALL_ROLES,
+    status: 200,
+    sample: async (fx) => ({ path: `/api/equipment/${(await fx.truck()).id}` }),
+  },
+  {
+    method: "PATCH",
+    route: "/api/equipment/[id]",
+    roles: DA,
+    status: 200,
+    audit: true,
+    fuzz: "json",
+    sample: async (fx) => ({ path: `/api/equipment/${(await fx.truck()).id}`, body: { name: "Route matrix bucket, renamed", version: 1 } }),
+  },
+  {
+    method: "POST",
+    route: "/api/equipment/[id]/rigging",
+    roles: DA,
+    status: 201,
+    audit: true,
+    fuzz: "json",
+    sample: async (fx) => ({
+      path: `/api/equipment/${(await fx.truck()).id}/rigging`,
+      body: { kind: "rope_block", label: "Route matrix blocks", partsOfLine: 3, wllLb: 2000, inspectedOn: fx.pastDay() },
+    }),
+  },
+  {
+    method: "DELETE",
+    route: "/api/equipment/[id]/rigging/[itemId]",
+    roles: DA,
+    status: 200,
+    audit: true,
+    sample: async (fx) => {
+      const r = await fx.riggingItem();
+      return { path: `/api/equipment/${r.equipmentId}/rigging/${r.itemId}` };
+    },
+  },
+  {
+    method: "POST",
+    route: "/api/equipment-assignments",
+    roles: D,
+    status: 201,
+    audit: true,
+    fuzz: "json",
+    sample: async (fx) => {
+      const s = await fx.seat();
+      return { path: "/api/equipment-assignments", body: { workOrderId: s.orderId, equipmentId: (await fx.truck()).id } };
+    },
+  },
+  {
+    method: "DELETE",
+    route: "/api/equipment-assignments/[id]",
+    roles: D,
+    status: 200,
+    audit: true,
+    fuzz: "query",
+    sample: async (fx) => {
+      const b = await fx.booking();
+      return { path: `/api/equipment-assignments/${b.id}?version=${b.version}` };
+    },
+  },
   // --- assignments and the board -------------------------------------------------------------
   {
     method: "POST",
