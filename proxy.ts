@@ -8,5 +8,5 @@ export default withAuth({
 });
 
 export const config = {
-  matcher: ["/((?!api|login|_next|favicon.ico|icons/|fonts|forbidden).*)"],
+  matcher: ["/((?!api|login|reset-password|_next|favicon.ico|icons/|fonts|forbidden).*)"],
 };

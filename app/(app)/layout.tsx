@@ -30,6 +30,9 @@ export default async function AppLayout({ children }: { children: React.ReactNod
             <span className="text-xs text-paper/70 sm:hidden" data-testid="role-short">
               {ROLE_LABEL[user.role]}
             </span>
+            <Link href="/account/password" className="text-xs text-paper/80 underline-offset-2 hover:underline" title="Change my password">
+              Password
+            </Link>
             <SignOutButton />
           </div>
         </div>

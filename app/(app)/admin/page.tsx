@@ -17,6 +17,9 @@ export default async function AdminPage() {
   return (
     <>
       <PageHeader eyebrow="Admin" title="Users and policies">
+        <Link href="/admin/users" className="btn-quiet">
+          Manage users
+        </Link>
         <Link href="/admin/templates" className="btn-quiet">
           Crew templates
         </Link>
