@@ -39,8 +39,8 @@ describe("Table R-6 rows (phase to phase, sea level)", () => {
     [72.5, dist(1.0, 3.29), "46.1 to 72.5 kV: 1.00 m, 3.29 ft"],
     [72.6, { engineering: true }, "above 72.5 kV: the employer's engineering analysis (Table R-3)"],
     [138, { engineering: true }, "above 72.5 kV: the employer's engineering analysis (Table R-3)"],
-  ])("%s kV -> %j (%s)", (kv, expected) => {
-    expect(at(kv as number)).toEqual(expected);
+  ] as Array<[number, unknown, string]>)("%s kV -> %j (%s)", (kv, expected) => {
+    expect(at(kv)).toEqual(expected);
   });
 
   it("no figure for de-energized work or an unknown voltage", () => {
