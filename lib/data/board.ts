@@ -8,6 +8,7 @@ import type { Assignment, DaySnapshot, Finding, Position, Worker, WorkOrder, Wor
 import { locateWarning } from "@/lib/orders/locate";
 import { attachEquipment, boardEquipment } from "@/lib/equipment/snapshot";
 import { latestEventId } from "./events";
+import { placedElsewhere } from "./placed-elsewhere";
 import { getPolicy } from "./policies";
 import { addDays, type Yard } from "./yards";
 
@@ -494,6 +495,7 @@ export async function loadBoard(
     },
     cursor,
     ...(await boardEquipment(db, organisationId, orderIds)),
+    placedElsewhere: await placedElsewhere(db, organisationId, yard.id, window),
     fakesEnabled: process.env.FAKES_ENABLED === "1",
     generatedAt: new Date().toISOString(),
   };

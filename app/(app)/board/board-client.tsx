@@ -366,7 +366,7 @@ export function BoardClient({
           </div>
         ) : equipmentDnd.dragged(activeId) ? (
           <div data-testid="drag-overlay" className="rounded-md border border-copper bg-white px-2.5 py-1.5 text-sm font-bold shadow-lg">
-            🚚 {equipmentDnd.dragged(activeId)!.unitNumber} <span className="text-xs font-semibold text-ink-500">{equipmentDnd.dragged(activeId)!.name}</span>
+            {equipmentDnd.dragged(activeId)!.unitNumber} <span className="text-xs font-semibold text-ink-500">{equipmentDnd.dragged(activeId)!.name}</span>
           </div>
         ) : null}
       </DragOverlay>

@@ -25,14 +25,13 @@ const TruckCard = memo(function TruckCard({ e, day, on }: { e: Equipment; day: s
         e.outOfService ? "cursor-not-allowed opacity-60" : "cursor-grab"
       } ${isDragging ? "opacity-40" : ""}`}
     >
-      <div className="flex items-center justify-between gap-2">
-        <span className="truncate font-bold">
-          {e.unitNumber} <span className="font-semibold text-ink-700">{e.name}</span>
-        </span>
-        <span className="shrink-0 text-[11px] font-semibold text-ink-500">{e.yardCode}</span>
-      </div>
+      <p className="truncate font-bold" title={`${e.unitNumber} ${e.name}`}>
+        {e.unitNumber} <span className="font-semibold text-ink-700">{e.name}</span>
+      </p>
       <div className="mt-0.5 flex flex-wrap items-center gap-1 text-[11px]">
-        <span className="font-semibold text-ink-700">{EQUIPMENT_KIND_LABEL[e.kind]}</span>
+        <span className="font-semibold text-ink-700">
+          {EQUIPMENT_KIND_LABEL[e.kind]} · {e.yardCode}
+        </span>
         {e.insulated && <span className="rounded border border-rule px-1 font-semibold text-ink-700">Insulated</span>}
         {test === "overdue" && <Badge tone="block">Dielectric test overdue</Badge>}
         {test === "missing" && <Badge tone="warn">No dielectric test</Badge>}

@@ -21,7 +21,6 @@ function Booked({ b, e, day }: { b: EquipmentBooking; e: Equipment | undefined; 
         isDragging ? "opacity-40" : ""
       }`}
     >
-      <span aria-hidden="true">🚚</span>
       {e?.unitNumber ?? `#${b.equipmentId}`}
       <span className="font-semibold text-ink-500">{e ? EQUIPMENT_KIND_LABEL[e.kind] : ""}</span>
       {test === "overdue" && <span className="text-block">⛔ test overdue</span>}

@@ -1,0 +1,61 @@
+import { expect, test, type Page } from "@playwright/test";
+import { drag, signIn } from "./helpers";
+
+// Demo scenario: WO-26-0105 (db/demo/scenario.ts) is tomorrow's open bucket order in North Yard
+// with no truck; N-314 (db/demo/equipment.ts) is North's in-service insulated bucket truck,
+// dielectric-tested 120 days ago. CREW-CHECK.md, "Equipment, gear and field figures": a `bucket`
+// order without a bucket truck is an EQUIPMENT block; with an insulated, tested one it is not.
+
+const ORDER = "WO-26-0105";
+
+async function equipmentFindings(page: Page) {
+  const card = page.getByTestId(`order-${ORDER}`);
+  await expect(async () => {
+    const show = card.getByRole("button", { name: /Show findings/ });
+    if (await show.count()) await show.click();
+    await expect(card.getByRole("button", { name: /Hide findings/ })).toBeVisible({ timeout: 1000 });
+  }).toPass({ timeout: 15_000 });
+  return card.locator('[data-testid="finding-EQUIPMENT"]');
+}
+
+test.use({ viewport: { width: 1440, height: 1100 } });
+
+test("drag a bucket truck onto a bucket order: it is seated and the EQUIPMENT block clears; back to the pool brings it back", async ({ page }) => {
+  await signIn(page, "dispatcher");
+  await expect(page).toHaveURL(/\/board/);
+  const seatSlot = page.getByTestId(`eqseat-${ORDER}`);
+  await expect(seatSlot).toContainText("open");
+  await expect(await equipmentFindings(page)).toHaveCount(1);
+
+  const d = await drag(page, '[data-testid="pool-truck-N-314"]', `[data-testid="eqseat-${ORDER}"]`);
+  const placed = page.waitForResponse((r) => r.url().endsWith("/api/equipment-assignments") && r.request().method() === "POST");
+  await d.drop();
+  // Seated at once (optimistic), and the client engine already drops the finding.
+  await expect(seatSlot).toContainText("N-314");
+  expect((await placed).status()).toBe(201);
+  await expect(page.getByTestId(`order-${ORDER}`).locator('[data-testid="finding-EQUIPMENT"]')).toHaveCount(0);
+  // The server's board agrees after a reload.
+  await page.reload();
+  await expect(page.getByTestId(`eqseat-${ORDER}`)).toContainText("N-314");
+  await expect(await equipmentFindings(page)).toHaveCount(0);
+  await expect(page.getByTestId("pool-truck-N-314")).toContainText(`on ${ORDER}`);
+
+  // Off again: the seat opens and the block returns.
+  const back = await drag(page, `[data-testid="eqseat-${ORDER}"] [data-testid="booked-N-314"]`, '[data-testid="equipment-pool-drop"]');
+  const removed = page.waitForResponse((r) => r.url().includes("/api/equipment-assignments/") && r.request().method() === "DELETE");
+  await back.drop();
+  expect((await removed).status()).toBe(200);
+  await expect(page.getByTestId(`eqseat-${ORDER}`)).toContainText("open");
+  await page.reload();
+  await expect(await equipmentFindings(page)).toHaveCount(1);
+});
+
+test("an out-of-service truck cannot be picked up onto an order", async ({ page }) => {
+  await signIn(page, "dispatcher");
+  // N-330 is out of service in the demo (boom hydraulic leak).
+  const d = await drag(page, '[data-testid="pool-truck-N-330"]', `[data-testid="eqadd-${ORDER}"]`);
+  await d.drop();
+  await page.waitForTimeout(500);
+  await expect(page.getByTestId(`eqadd-${ORDER}`)).not.toContainText("N-330");
+  await expect(page.getByTestId("pool-truck-N-330")).toContainText("Out of service");
+});
