@@ -14,6 +14,8 @@ export const CRED_LABEL: Record<string, string> = {
   pole_top_rescue: "Pole rescue",
   aerial_rescue: "Lift rescue",
   equipment_operator: "Operator",
+  // An operator who also counts toward the two-worker minimum (CREW-CHECK.md, Corrections 1).
+  qualified_electrical: "Qualified elec.",
   cdl_a: "CDL-A",
   cdl_b: "CDL-B",
 };
