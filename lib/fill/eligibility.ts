@@ -15,6 +15,7 @@
 
 import { RULES, SnapshotIndex } from "@/lib/rules/engine";
 import { energizedAtLeast, ENERGIZED_WORK_KV } from "@/lib/rules/common";
+import { orderLastDay } from "@/lib/rules/snapshot-index";
 import type { Assignment, DaySnapshot, Finding, Policy, Position, RuleCode, WorkOrder } from "@/lib/rules/types";
 
 export const POSITION_RULES: RuleCode[] = ["CLIMB_CERT", "QUALIFIED", "OPERATOR_CERT"];
@@ -30,9 +31,13 @@ export function isBlock(f: Finding, policy: Policy): boolean {
   return f.level === "block" || Boolean(f.locked) || policy.levels?.[f.rule] === "block";
 }
 
-/** Cache key parts of an order: what the position rules and the time rules read. */
-export function positionKey(order: WorkOrder): string {
-  return `${order.startDate}|${energizedAtLeast(order, ENERGIZED_WORK_KV) ? 1 : 0}|${order.driverLicence ?? "cdl_b"}`;
+/**
+ * Cache key parts of an order: what the position rules read (credentials must hold from the
+ * first day to the last, CREW-CHECK.md Corrections 6, so both days are in the key).
+ */
+export function positionKey(order: WorkOrder, tz?: string): string {
+  const last = tz ? orderLastDay(order, tz) : order.endDate;
+  return `${order.startDate}|${last}|${energizedAtLeast(order, ENERGIZED_WORK_KV) ? 1 : 0}|${order.driverLicence ?? "cdl_b"}`;
 }
 export function timeKey(order: WorkOrder): string {
   return `${order.start}|${order.end}`;
@@ -57,7 +62,7 @@ export class EligibilityProbe {
   constructor(snapshot: DaySnapshot, orders: readonly WorkOrder[]) {
     const copies: WorkOrder[] = [];
     for (const o of orders) {
-      const pk = positionKey(o);
+      const pk = positionKey(o, snapshot.timezone);
       if (!this.posOrder.has(pk)) {
         const copy = { ...o, id: `\u0000probe:p:${this.posOrder.size}` };
         this.posOrder.set(pk, copy);
@@ -93,7 +98,7 @@ export class EligibilityProbe {
   }
 
   /** Blocks of CLIMB_CERT, QUALIFIED and OPERATOR_CERT for the worker alone in the position on an order like this one. */
-  positionBlocks(workerId: string, order: WorkOrder, position: Position, key = positionKey(order)): Finding[] {
+  positionBlocks(workerId: string, order: WorkOrder, position: Position, key = positionKey(order, this.ix.timezone)): Finding[] {
     const k = `${workerId}|${position}|${key}`;
     let hit = this.posCache.get(k);
     if (hit) return hit;
@@ -101,9 +106,10 @@ export class EligibilityProbe {
     const probe = this.posOrder.get(key);
     if (!worker || !probe) return EMPTY;
     const policy = this.ix.policy;
-    // An apprentice climbing needs a journeyman or crew lead beside them: a crew condition the
-    // model states itself, so the unsupervised-apprentice QUALIFIED finding is not an exclusion.
-    const supervisedLater = worker.classification === "apprentice" && position === "climber";
+    // An apprentice climbing or in the bucket needs a journeyman or crew lead beside them: a crew
+    // condition the model states itself, so the unsupervised-apprentice QUALIFIED finding is not
+    // an exclusion.
+    const supervisedLater = worker.classification === "apprentice" && (position === "climber" || position === "aerial");
     hit = this.run(positionChecks, probe, { workOrderId: probe.id, workerId, position }, (f) => isBlock(f, policy) && !(supervisedLater && f.rule === "QUALIFIED"));
     this.posCache.set(k, hit);
     return hit;

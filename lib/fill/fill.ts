@@ -15,12 +15,15 @@
 //   min crew     people already there + Σ_w person(w,o) ≥ minCrew·y[o];
 //   FIRST_AID    energized work with ≥ 2 on site: ≥ 2 with current first aid/CPR (a lone
 //                person holding both seats of a two-seat order is exempt, as in the rule);
-//   RESCUE       climbing: ≥ 1 person not climbing with pole-top rescue; bucket: ≥ 1 not in
-//                the bucket with aerial-lift rescue;
+//   RESCUE       climbing: ≥ 1 person not climbing with pole-top rescue; bucket: ≥ 1 not aloft
+//                (not in an aerial or climber seat, nor the lead when the order has no aerial
+//                seat) with aerial-lift rescue; training valid on every day of the order;
 //   OBSERVER     a new observer is never the operator or a climber (one-seat rule), so an open
 //                observer seat filled meets it; an order without one that needs one is left open;
-//   CREW_MIN     J+O ≥ 2 − 2g, J ≥ g, J+O+A ≥ 2 on energized climbing/bucket/derrick/storm work
-//                (J journey-level, O operators, A apprentices; counted with those already there);
+//   CREW_MIN     J+O ≥ 2 − 2g, J ≥ g, J+O+A ≥ 2 where the two-worker minimum applies (any work
+//                but patrol, on or near parts above 600 V; CREW-CHECK.md Corrections 2)
+//                (J journey-level, O operators holding qualified_electrical through the order's
+//                last day, A apprentices; counted with those already there; Corrections 1);
 //   apprentice   an apprentice only beside a journeyman or crew lead (any work: a house rule
 //                stricter than QUALIFIED, which asks it of apprentices climbing energized work).
 // Objective: objective.ts (two phases: priority first; then fairness, home yard, together).
@@ -39,7 +42,7 @@
 // again, a bounded number of times; orders still blocked after that are left open.
 
 import { findingsForOrders, SnapshotIndex } from "@/lib/rules/engine";
-import { energizedAtLeast, ENERGIZED_WORK_KV, isClimbingWork, isJourneyLevel } from "@/lib/rules/common";
+import { energizedAtLeast, ENERGIZED_WORK_KV, HIGH_VOLTAGE_KV, isClimbingWork, isJourneyLevel, onOrNearAbove } from "@/lib/rules/common";
 import { twoWorkerRuleApplies } from "@/lib/rules/crew-min";
 import type { Assignment, Finding, Position, RuleCode, Worker, WorkOrder } from "@/lib/rules/types";
 import { EligibilityProbe, exclusionOf, positionKey, timeKey } from "./eligibility";
@@ -168,7 +171,7 @@ export async function fill(problem: FillProblem, settingsIn: Partial<FillSetting
     });
   }
   const ctxById = new Map(ctxs.map((c) => [c.fo.id, c]));
-  const posKeys = ctxs.map((c) => [...c.open.keys()].map((p) => [p, `${p}|${positionKey(c.order)}`] as const));
+  const posKeys = ctxs.map((c) => [...c.open.keys()].map((p) => [p, `${p}|${positionKey(c.order, ix.timezone)}`] as const));
   const timeKeys = ctxs.map((c) => timeKey(c.order));
   let eligiblePairs = 0;
   for (const w of pool) {
@@ -283,12 +286,13 @@ export async function fill(problem: FillProblem, settingsIn: Partial<FillSetting
       }
       return v.person;
     };
-    const personBut = (o: string, w: string, skip: Position) => {
+    /** person(o, w) when w holds none of the `skip` seats (a seat in `skip` is never the rescuer's). */
+    const personBut = (o: string, w: string, skip: readonly Position[]) => {
       const v = vars.get(o)?.get(w);
-      const i = v ? v.pos.indexOf(skip) : -1;
-      if (i < 0) return person(o, w);
-      const sk = v!.cols[i];
-      return person(o, w).filter(([k]) => k !== sk);
+      if (!v) return person(o, w);
+      const sk = new Set(v.pos.flatMap((p, i) => (skip.includes(p) ? [v.cols[i]] : [])));
+      if (sk.size === 0) return person(o, w);
+      return person(o, w).filter(([k]) => !sk.has(k));
     };
     const inSet = new Set(orders.map((c) => c.fo.id));
     const seatRows: number[] = [];
@@ -352,13 +356,13 @@ export async function fill(problem: FillProblem, settingsIn: Partial<FillSetting
       }
       // FIRST_AID: energized work, two or more on site, two trained.
       if (energizedAtLeast(order, ENERGIZED_WORK_KV) && !off.has("FIRST_AID")) {
-        const trainedE = E.filter((w) => ix.holdsOn(w, "first_aid_cpr", order.startDate)).length;
+        const trainedE = E.filter((w) => ix.holdsThrough(w, "first_aid_cpr", order)).length;
         const lead = c.open.get("lead")?.length ?? 0;
         const minPeople = E.length + c.openCount - Math.min(lead, c.openCount - lead);
         if (trainedE < 2 && E.length + c.openCount >= 2) {
           need.add("FIRST_AID");
           const want = 2 - trainedE;
-          const terms = sumPeople(workersOf((w) => ix.holdsOn(w, "first_aid_cpr", order.startDate)));
+          const terms = sumPeople(workersOf((w) => ix.holdsThrough(w, "first_aid_cpr", order)));
           if (minPeople <= 1) for (const w of candIds) { const dc = here.get(w)!.d; if (dc >= 0) terms.push([dc, want]); }
           lp.row([...terms, [yc, -want]], 0, Infinity, true);
         }
@@ -367,22 +371,30 @@ export async function fill(problem: FillProblem, settingsIn: Partial<FillSetting
       if (!off.has("RESCUE")) {
         const positionsOf = ix.crew(o).positionsOf;
         const hasClimber = c.open.has("climber") || E.some((w) => positionsOf.get(w.id)?.has("climber"));
-        const notClimbingE = E.filter((w) => !positionsOf.get(w.id)?.has("climber"));
-        const rescue = (code: string) => {
-          if (notClimbingE.some((w) => ix.holdsOn(w, code, order.startDate))) return;
+        // Who is aloft (Corrections 3): climbers; on bucket work also the aerial seats, and the
+        // lead when the order has no aerial seat at all (filled or open).
+        const aloftSeats: Position[] =
+          order.workType === "bucket"
+            ? c.open.has("aerial") || E.some((w) => positionsOf.get(w.id)?.has("aerial"))
+              ? ["climber", "aerial"]
+              : ["climber", "aerial", "lead"]
+            : ["climber"];
+        const rescue = (code: string, skip: Position[]) => {
+          if (E.some((w) => !skip.some((p) => positionsOf.get(w.id)?.has(p)) && ix.holdsThrough(w, code, order))) return;
           need.add("RESCUE");
-          const terms = workersOf((w) => ix.holdsOn(w, code, order.startDate)).flatMap((w) => personBut(o, w, "climber"));
+          const terms = workersOf((w) => ix.holdsThrough(w, code, order)).flatMap((w) => personBut(o, w, skip));
           lp.row([...terms, [yc, -1]], 0, Infinity);
         };
-        if (isClimbingWork(order, hasClimber)) rescue("pole_top_rescue");
-        if (order.workType === "bucket") rescue("aerial_rescue");
+        if (isClimbingWork(order, hasClimber)) rescue("pole_top_rescue", ["climber"]);
+        if (order.workType === "bucket") rescue("aerial_rescue", aloftSeats);
       }
       // CREW_MIN: two qualified workers on energized work above 600 V (the exceptions only warn).
       const jE = E.filter((w) => isJourneyLevel(w.classification)).length;
-      const oE = E.filter((w) => w.classification === "operator").length;
+      const qualifiedOperator = (w: Worker) => w.classification === "operator" && ix.holdsThrough(w, "qualified_electrical", order);
+      const oE = E.filter(qualifiedOperator).length;
       const aE = E.filter((w) => w.classification === "apprentice").length;
       const J = sumPeople(workersOf((w) => isJourneyLevel(w.classification)));
-      const O = sumPeople(workersOf((w) => w.classification === "operator"));
+      const O = sumPeople(workersOf(qualifiedOperator));
       const A = sumPeople(workersOf((w) => w.classification === "apprentice"));
       const crewMinBlocks = twoWorkerRuleApplies(order) && (!order.exception || policy.levels?.CREW_MIN === "block");
       if (crewMinBlocks && jE + oE < 2 && !off.has("CREW_MIN")) {
@@ -895,10 +907,10 @@ export async function fill(problem: FillProblem, settingsIn: Partial<FillSetting
     const kinds: Array<(w: Worker, c: Ctx) => boolean> = [
       () => true,
       (w) => isJourneyLevel(w.classification),
-      (w) => w.classification === "operator",
-      (w, c) => ix.holdsOn(w, "first_aid_cpr", c.order.startDate),
-      (w, c) => ix.holdsOn(w, "pole_top_rescue", c.order.startDate),
-      (w, c) => ix.holdsOn(w, "aerial_rescue", c.order.startDate),
+      (w, c) => w.classification === "operator" && ix.holdsThrough(w, "qualified_electrical", c.order),
+      (w, c) => ix.holdsThrough(w, "first_aid_cpr", c.order),
+      (w, c) => ix.holdsThrough(w, "pole_top_rescue", c.order),
+      (w, c) => ix.holdsThrough(w, "aerial_rescue", c.order),
     ];
     built.groups.forEach((gr, g) => {
       const list = sortedOf(g);
@@ -989,6 +1001,11 @@ export async function fill(problem: FillProblem, settingsIn: Partial<FillSetting
     const timeTrouble = new Set<string>();
     for (const f of findingsForOrders(after, ids)) {
       if (f.level !== "block") continue;
+      // LOCATE is about the order's ticket, not its crew: no staffing fixes or breaks it.
+      if (f.rule === "LOCATE") {
+        if (proposal.has(f.workOrderId)) push(carriedOut, f.workOrderId, f);
+        continue;
+      }
       const key = `${f.rule}|${f.workOrderId}|${f.workerId ?? ""}`;
       const isNew = f.workerId !== null && newOn.get(f.workerId)?.has(f.workOrderId);
       if (proposal.has(f.workOrderId)) {
@@ -1079,14 +1096,16 @@ export async function fill(problem: FillProblem, settingsIn: Partial<FillSetting
     // Credentials the crew rules count, named only where this person is one the count rests on.
     const crewIds = new Set([...c.existing.map((x2) => x2.id), ...crew.map((a) => a.workerId)]);
     const crewWorkers = [...crewIds].map((id) => ix.workers.get(id)!);
-    const date = c.order.startDate;
-    if (needs.has("FIRST_AID") && ix.holdsOn(rw, "first_aid_cpr", date) && crewWorkers.filter((x2) => ix.holdsOn(x2, "first_aid_cpr", date)).length <= 2) {
+    const holds = (x2: Worker, code: string) => ix.holdsThrough(x2, code, c.order);
+    if (needs.has("FIRST_AID") && holds(rw, "first_aid_cpr") && crewWorkers.filter((x2) => holds(x2, "first_aid_cpr")).length <= 2) {
       out.push("first aid/CPR trained (one of the two the crew needs)");
     }
-    if (needs.has("RESCUE") && !mineSeats.includes("climber")) {
-      const climbing = (id: string) => c.existing.some((x2) => x2.id === id && ix.crew(c.fo.id).positionsOf.get(id)?.has("climber")) || crew.some((a) => a.workerId === id && a.position === "climber");
+    if (needs.has("RESCUE") && !mineSeats.includes("climber") && !mineSeats.includes("aerial")) {
+      const climbing = (id: string) =>
+        c.existing.some((x2) => x2.id === id && ["climber", "aerial"].some((p) => ix.crew(c.fo.id).positionsOf.get(id)?.has(p as Position))) ||
+        crew.some((a) => a.workerId === id && (a.position === "climber" || a.position === "aerial"));
       const code = c.order.workType === "bucket" ? "aerial_rescue" : "pole_top_rescue";
-      const rescuers = crewWorkers.filter((x2) => !climbing(x2.id) && ix.holdsOn(x2, code, date));
+      const rescuers = crewWorkers.filter((x2) => !climbing(x2.id) && holds(x2, code));
       if (rescuers.length === 1 && rescuers[0].id === w.id) {
         out.push(code === "aerial_rescue" ? "aerial-lift rescue trained, on the ground (the crew's only one)" : "pole-top rescue trained, not climbing (the crew's only one)");
       }
@@ -1189,10 +1208,10 @@ export async function fill(problem: FillProblem, settingsIn: Partial<FillSetting
         "RESCUE",
         "RESCUE",
         c.order.workType === "bucket"
-          ? "No eligible person on the ground holds aerial-lift rescue training (lower controls)."
+          ? "No eligible person on the ground (not aloft) holds aerial-lift rescue training (lower controls)."
           : "No eligible person other than the climber holds pole-top rescue training.",
       ],
-      ["CREW_MIN", "CREW_MIN", "Not enough eligible qualified workers: energized work above 600 V needs two on site (journeymen, crew leads, operators or supervised apprentices)."],
+      ["CREW_MIN", "CREW_MIN", "Not enough eligible qualified workers: work on or near parts above 600 V needs two on site (journeymen, crew leads, supervised apprentices, or operators who hold the qualified-electrical credential)."],
       ["APPRENTICE", "QUALIFIED", "The eligible people for some positions are apprentices, and no journeyman or crew lead is eligible to work beside them."],
       ["MIN_CREW", "CREW_MIN", `Needs ${c.order.minCrew ?? 0} people on site, and there are not that many different eligible people for its positions.`],
       ["ONE_SEAT", null, "The same few people are the only ones eligible for several of its positions; one person cannot take two of them."],
@@ -1262,8 +1281,12 @@ function staticImpossibility(c: Ctx, ix: SnapshotIndex): { reason: string; rule:
   }
   const positionsOf = ix.crew(c.fo.id).positionsOf;
   const observers = c.existing.filter((w) => positionsOf.get(w.id)?.has("observer"));
-  if (order.workType === "digger_derrick" && order.energized && !c.open.has("observer") && !observers.some((w) => !positionsOf.get(w.id)!.has("operator"))) {
-    return { reason: "A digger derrick near energized lines needs an observer who is not the operator, and the order has no open observer position.", rule: "OBSERVER" };
+  if (order.workType === "digger_derrick" && onOrNearAbove(order, HIGH_VOLTAGE_KV) && !c.open.has("observer") && !observers.some((w) => !positionsOf.get(w.id)!.has("operator"))) {
+    return { reason: "A digger derrick on or near parts above 600 V needs an observer who is not the operator, and the order has no open observer position.", rule: "OBSERVER" };
+  }
+  // IN_CHARGE blocks (Corrections 5): two or more on site need someone in the lead position.
+  if (c.existing.length + c.openCount >= 2 && !c.open.has("lead") && !c.existing.some((w) => positionsOf.get(w.id)?.has("lead"))) {
+    return { reason: "Two or more people on site need a lead (the employee in charge, who holds the job briefing), and the order has no lead position; add one to the order.", rule: "IN_CHARGE" };
   }
   const hasClimber = c.open.has("climber") || c.existing.some((w) => positionsOf.get(w.id)?.has("climber"));
   if (isClimbingWork(order, hasClimber) && !c.open.has("observer") && !observers.some((w) => !positionsOf.get(w.id)!.has("climber"))) {

@@ -10,7 +10,7 @@ import type { FillOrder, FillProblem, FillSeat, FillWorker } from "./types";
 
 export const SEAT_TEMPLATES: Record<WorkType, Position[]> = {
   pole_climb: ["lead", "climber", "observer"],
-  bucket: ["lead", "climber", "ground", "driver"],
+  bucket: ["lead", "aerial", "ground", "driver"],
   digger_derrick: ["lead", "operator", "observer", "ground"],
   patrol: ["lead"],
   storm: ["lead", "climber", "observer", "driver"],

@@ -59,11 +59,13 @@ export const rest: RuleCheck = (orders, ix) => {
   for (const order of orders) {
     const worked = workedIntervals(order);
     for (const w of ix.crew(order.id).people) {
-      // The longest stretch any of the order's worked intervals falls in.
+      // The longest stretch any of the order's worked intervals falls in; the earliest of
+      // equally long ones, so the message does not depend on the order shifts are listed in.
       let st: Interval | null = null;
       for (const iv of worked) {
         const s = stretchContaining(ix, w, iv);
-        if (!st || s.end - s.start > st.end - st.start) st = s;
+        const d = s.end - s.start - (st ? st.end - st.start : -1);
+        if (!st || d > 0 || (d === 0 && s.start < st.start)) st = s;
       }
       if (st && st.end - st.start > maxShiftHours * HOUR_MS) {
         out.push(

@@ -167,8 +167,7 @@ export class SnapshotIndex {
   lastDay(order: WorkOrder): string {
     let d = this.lastDays.get(order);
     if (d === undefined) {
-      d = order.end > order.start ? epochToZonedDate(order.end - 1, this.timezone) : order.startDate;
-      if (d < order.startDate) d = order.startDate;
+      d = orderLastDay(order, this.timezone);
       this.lastDays.set(order, d);
     }
     return d;
@@ -207,6 +206,15 @@ export class SnapshotIndex {
     }
     return cache.stretches;
   }
+}
+
+/**
+ * An order's last day in zone `tz`: the date of its last worked instant (an order ending at
+ * midnight ends on the day before). Same as SnapshotIndex.lastDay, for callers without an index.
+ */
+export function orderLastDay(order: WorkOrder, tz: string): string {
+  const d = order.end > order.start ? epochToZonedDate(order.end - 1, tz) : order.startDate;
+  return d < order.startDate ? order.startDate : d;
 }
 
 /** First index i with arr[i] > value (arr ascending). */

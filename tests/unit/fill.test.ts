@@ -46,17 +46,19 @@ function mkOrder(id: string, o: Partial<WorkOrder> & { from: string; to: string 
     exception: o.exception ?? null,
     minCrew: o.minCrew ?? null,
     driverLicence: o.driverLicence ?? "cdl_b",
+    nearEnergizedKv: o.nearEnergizedKv ?? null,
   };
 }
 
 // --- random small days -------------------------------------------------------------------------
 
-const CREDS = ["climbing", "first_aid_cpr", "pole_top_rescue", "aerial_rescue", "equipment_operator", "cdl_b"];
+// qualified_electrical: an operator counts toward the two-worker minimum only with it (CREW-CHECK.md Corrections 1).
+const CREDS = ["climbing", "first_aid_cpr", "pole_top_rescue", "aerial_rescue", "equipment_operator", "cdl_b", "qualified_electrical"];
 const CLASSES: Classification[] = ["journeyman", "crew_lead", "apprentice", "ground_hand", "operator"];
 const TYPES: WorkType[] = ["pole_climb", "bucket", "digger_derrick", "patrol", "storm", "other"];
 const SEATS: Record<WorkType, Position[]> = {
   pole_climb: ["lead", "climber", "observer"],
-  bucket: ["lead", "climber", "ground"],
+  bucket: ["lead", "aerial", "ground"], // aerial: the person in the bucket (Corrections 3)
   digger_derrick: ["lead", "operator", "observer"],
   patrol: ["lead"],
   storm: ["lead", "ground"],
@@ -111,12 +113,15 @@ function randomDay(seed: number): FillProblem {
     const workType = pick(TYPES);
     const [from, to] = pick(SLOTS);
     const id = `o${i + 1}`;
+    const energized = rnd() < 0.85;
     workOrders.push(
       mkOrder(id, {
         from,
         to,
         workType,
-        energized: rnd() < 0.85,
+        energized,
+        // De-energized work beside a live feeder now and then (Corrections 2).
+        nearEnergizedKv: !energized && rnd() < 0.6 ? 12.47 : null,
         voltageKv: rnd() < 0.8 ? 12.47 : 0.24,
         exception: rnd() < 0.1 ? "emergency" : null,
         minCrew: rnd() < 0.2 ? 2 : null,
@@ -353,7 +358,7 @@ describe("fill: explanations", () => {
     expect(seat.eligibleCount).toBe(0);
     expect(seat.candidates.map((c) => c.workerId).sort()).toEqual(["g1", "j1", "j2", "l1"]);
     expect(seat.candidates.find((c) => c.workerId === "j1")?.excludedBy).toBe("CLIMB_CERT");
-    expect(seat.candidates.find((c) => c.workerId === "j1")?.message).toMatch(/expired on 2027-03-01/);
+    expect(seat.candidates.find((c) => c.workerId === "j1")?.message).toMatch(/expired on 1 March 2027/); // dates in words (issue 18 point 8)
   });
 
   it("gives reasons: priority, overtime rank and home yard", async () => {

@@ -228,6 +228,16 @@ describe("Corrections 6: multi-day orders (every day valid, warning window from 
     expect(brief(run(rest, day([w], [order("o", { ...three, shifts: close })], [["o", "w", "lead"]])))).toEqual(["o/w/block"]);
   });
 
+  it("common practice: two equally long stretches: the earliest is named, whatever the order of the shifts", () => {
+    // Found by the permutation property: two 10 h shifts 14 h apart, an 8 h maximum.
+    const w = worker("w", "journeyman");
+    const a = { start: t("2027-04-06T07:00"), end: t("2027-04-06T17:00") };
+    const b = { start: t("2027-04-07T07:00"), end: t("2027-04-07T17:00") };
+    const msg = (shifts: typeof a[]) => run(rest, day([w], [order("o", { ...three, shifts })], [["o", "w", "lead"]], { maxShiftHours: 8 }))[0].message;
+    expect(msg([a, b])).toMatch(/10 h stretch \(6 April 2027 07:00 to 17:00\)/);
+    expect(msg([b, a])).toBe(msg([a, b]));
+  });
+
   it("common practice: another order's shifts count for the worker's rest too", () => {
     const w = worker("w", "journeyman");
     const a = order("a", { ...three, shifts: [{ start: t("2027-04-06T07:00"), end: t("2027-04-06T17:00") }] });
