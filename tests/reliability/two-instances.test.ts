@@ -145,4 +145,48 @@ describe("two instances, one database", () => {
     expect(converged).toBeLessThan(5_000);
     console.log(`[two-instances] 50 requests in ${elapsed} ms: ${results.filter((r) => r.status === 201).length} × 201, ${results.filter((r) => r.status === 409).length} × 409; boards equal after ${converged} ms`);
   });
+
+  it("issue 16: one truck dropped on 5 overlapping orders at once, across both instances: one booking, 4 × 409, 5 times over", async () => {
+    const [a, b] = apps;
+    const clients = await Promise.all([signedIn(a.url, "dispatcher"), signedIn(b.url, "supervisor"), signedIn(b.url, "dispatcher"), signedIn(a.url, "supervisor")]);
+    const y = await db("yards").where({ code: "NOR" }).first();
+    const run = Date.now().toString(36);
+    const trucks: number[] = [];
+    for (let t = 0; t < 5; t++) {
+      const [id] = await db("equipment").insert({
+        organisation_id: y.organisation_id,
+        yard_id: y.id,
+        kind: "bucket_truck",
+        unit_number: `TI-${run}-${t}`,
+        name: "Two-instance bucket",
+        insulated: true,
+        licence: "cdl_b",
+      });
+      trucks.push(Number(id));
+    }
+    try {
+      // Every order on the same day and hours: each overlaps every other.
+      const orders: Awaited<ReturnType<typeof makeOrder>>[] = [];
+      for (let i = 0; i < 5; i++) orders.push(await makeOrder(db, { offsetDays: OFFSET + 1, positions: ["lead"], workType: "bucket", start: "08:00", end: "14:00" }));
+      const reqs = trucks.flatMap((t) => orders.map((o) => ({ truck: t, orderId: o.id })));
+      const mixed = reqs.map((r, i) => ({ r, key: (i * 37) % reqs.length })).sort((x, y2) => x.key - y2.key).map((x) => x.r);
+      const results = await Promise.all(
+        mixed.map(async (r, i) => {
+          const res = await clients[i % 4].json("/api/equipment-assignments", "POST", { workOrderId: r.orderId, equipmentId: r.truck });
+          return { ...r, status: res.status, instance: i % 2 === 0 ? "A" : "B" };
+        }),
+      );
+      expect(results.filter((r) => r.status >= 500)).toEqual([]);
+      for (const t of trucks) {
+        const rs = results.filter((r) => r.truck === t);
+        expect(rs.filter((r) => r.status === 201), `truck ${t}`).toHaveLength(1);
+        expect(rs.filter((r) => r.status === 409), `truck ${t}`).toHaveLength(4);
+        // Persisted: the truck on exactly one of the overlapping orders.
+        expect(Number((await db("equipment_assignments").where({ equipment_id: t }).count({ n: "*" }).first())?.n)).toBe(1);
+      }
+    } finally {
+      await db("equipment_assignments").whereIn("equipment_id", trucks).delete();
+      await db("equipment").whereIn("id", trucks).delete();
+    }
+  });
 });
