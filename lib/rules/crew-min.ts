@@ -13,6 +13,7 @@ import {
   plural,
   type RuleCheck,
 } from "./common";
+import { kvNumber, voltageLabel } from "./labels";
 import type { SnapshotIndex } from "./snapshot-index";
 import type { CrewException, Finding, Worker, WorkOrder } from "./types";
 
@@ -43,8 +44,8 @@ export interface TwoWorkerBasis {
   why: string;
 }
 
-function kvWords(kv: number | null): string {
-  return kv === null ? "of unknown voltage (counted as above 600 V)" : `at ${kv} kV`;
+function kvWords(order: WorkOrder): string {
+  return order.voltageKv === null ? "of unknown voltage (counted as above 600 V)" : `at ${voltageLabel(order.voltageKv, order.phases, order.systemKv)}`;
 }
 
 /**
@@ -60,10 +61,10 @@ export function twoWorkerBasis(order: WorkOrder): TwoWorkerBasis | null {
   const whys: string[] = [];
   if (energizedAbove(order, HIGH_VOLTAGE_KV)) {
     paragraphs.push("(A)");
-    whys.push(`the work is energized ${kvWords(order.voltageKv)}`);
+    whys.push(`the work is energized ${kvWords(order)}`);
   } else if (nearAbove(order, HIGH_VOLTAGE_KV)) {
     paragraphs.push("(B)");
-    whys.push(`exposed parts at ${order.nearEnergizedKv} kV are within reach of the de-energized work`);
+    whys.push(`exposed parts at ${kvNumber(order.nearEnergizedKv!)} kV are within reach of the de-energized work`);
   }
   if (paragraphs.length === 0) return null;
   if (order.workType === "digger_derrick") {

@@ -9,9 +9,12 @@ export function kvNumber(kv: number): string {
   return String(Math.round(kv * 100) / 100);
 }
 
-/** The phase-to-phase voltage of the wye system a single-phase line is tapped from. */
+/**
+ * The phase-to-phase voltage of the wye system a single-phase line is tapped from: systemKv when
+ * it is above the tap's own voltage (anything else is not a wye system), otherwise voltageKv × √3.
+ */
 export function systemKvOf(voltageKv: number, systemKv?: number | null): number {
-  return systemKv != null && systemKv > 0 ? systemKv : Math.round(voltageKv * Math.sqrt(3) * 100) / 100;
+  return systemKv != null && systemKv > voltageKv ? systemKv : Math.round(voltageKv * Math.sqrt(3) * 100) / 100;
 }
 
 /**

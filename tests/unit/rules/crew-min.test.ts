@@ -167,3 +167,10 @@ describe("CREW_MIN", () => {
     expect(found[0].source).toBe(`${TEMPLATE}; ${A}`);
   });
 });
+
+describe("CREW_MIN wording of the voltage (Corrections 8)", () => {
+  it("a single-phase tap off a 12.47Y/7.2 kV feeder reads as its system", () => {
+    const found = run(crewMin, day(people, [order("o", { voltageKv: 7.2, phases: 1 })], [["o", "j1", "climber"]]));
+    expect(found[0].message).toMatch(/because the work is energized at 12\.47Y\/7\.2 kV;/);
+  });
+});

@@ -24,5 +24,8 @@ describe("voltageLabel", () => {
     expect(systemKvOf(7.2)).toBe(12.47);
     expect(systemKvOf(7.2, 12.47)).toBe(12.47);
     expect(systemKvOf(7.62)).toBe(13.2);
+    // A "system" at or below the tap's own voltage is not a wye system: √3 instead.
+    expect(systemKvOf(7.2, 7.2)).toBe(12.47);
+    expect(systemKvOf(7.2, 0)).toBe(12.47);
   });
 });
