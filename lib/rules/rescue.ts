@@ -6,8 +6,12 @@
 import { aloftIds, finding, isClimbingWork, type RuleCheck } from "./common";
 import type { Finding } from "./types";
 
+/** Climbing work: the paragraph and OSHA's reading of it. */
 export const RESCUE_SOURCE =
-  "29 CFR 1910.269(a)(2)(i)(B) (training in emergency procedures such as pole-top and manhole rescue); one trained person besides the exposed worker is common practice";
+  "29 CFR 1910.269(a)(2)(i)(B) (training in emergency procedures such as pole-top rescue); OSHA letter of interpretation of 1997-02-13 (at least one crew member other than the exposed employee trained in pole-top rescue)";
+/** Bucket work: the same paragraph; the letter speaks of pole-top rescue, so its bucket reading is common practice. */
+export const RESCUE_BUCKET_SOURCE =
+  "29 CFR 1910.269(a)(2)(i)(B) (training in emergency procedures); someone not aloft trained to lower the bucket is common practice, as the 1997-02-13 letter asks for pole-top rescue";
 
 export const rescue: RuleCheck = (orders, ix) => {
   const out: Finding[] = [];
@@ -42,7 +46,7 @@ export const rescue: RuleCheck = (orders, ix) => {
             "Bucket work needs someone on the ground, not aloft, with aerial-lift rescue training (lower controls) valid on every day of the order; " +
               (aloftHolder ? "the only trained worker is up in the bucket and cannot rescue themselves. " : "none assigned. ") +
               "Add a ground worker trained in aerial-lift rescue.",
-            RESCUE_SOURCE,
+            RESCUE_BUCKET_SOURCE,
           ),
         );
       }

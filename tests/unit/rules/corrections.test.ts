@@ -9,9 +9,9 @@
 //   "an employer must have at least two qualified employees present"; the insulated-aerial-lift
 //   exception applies only to (D); a transformer installed from an insulated aerial lift near
 //   parts above 600 V still needs the second employee under (C).
-// - OSHA letter of interpretation of 1997-02-13: its text could not be retrieved here; cited from
-//   memory (unverified) for the second employee being there to help the exposed one, i.e. someone
-//   other than the worker aloft must be able to bring them down.
+// - OSHA letter of interpretation of 1997-02-13 (read on osha.gov): under (a)(2)(i) "at least one
+//   crew member other than the exposed employee must be trained" in pole-top rescue when the work
+//   may need it; its reading for the bucket (someone not aloft) is common practice.
 // - Locate tickets: each state's one-call (dig-safe) law sets a ticket's life (common practice;
 //   the product quotes no number).
 // The issue-14 "Why" holes are reproduced first; they gave no finding before these corrections.
@@ -148,7 +148,7 @@ describe("Corrections 2 and 4: OBSERVER for derricks near live parts ((p)(4)(ii)
   });
 });
 
-describe("Corrections 3: the person in the bucket, who is aloft, and who can rescue ((a)(2)(i)(B); letter 1997-02-13, from memory)", () => {
+describe("Corrections 3: the person in the bucket, who is aloft, and who can rescue ((a)(2)(i)(B); letter 1997-02-13)", () => {
   const ar = worker("ar", "journeyman"); // holds every credential, aerial_rescue included
   const ar2 = worker("ar2", "journeyman");
   const j = worker("j", "journeyman", { credentials: NO_RESCUE });
@@ -167,7 +167,9 @@ describe("Corrections 3: the person in the bucket, who is aloft, and who can res
     { name: "(a)(2)(i)(B): pole climb, trained observer on the ground", crew: [["o", "j", "climber"], ["o", "gr", "observer"]], expected: [] },
   ];
   it.each(cases)("$name", ({ order: o, crew, expected }) => {
-    expect(brief(run(rescue, day(ws, [order("o", o)], crew)))).toEqual(expected);
+    const found = run(rescue, day(ws, [order("o", o)], crew));
+    expect(brief(found)).toEqual(expected);
+    for (const f of found) expect(f.source).toMatch(/^29 CFR 1910\.269\(a\)\(2\)\(i\)\(B\) .*1997-02-13/);
   });
 
   const qcases: Array<{ name: string; crew: A[]; expected: string[] }> = [
