@@ -7,6 +7,7 @@ import { epochToZonedDate, zonedWallTimeToEpoch } from "@/lib/rules/time";
 import type { Assignment, DaySnapshot, Finding, Position, Worker, WorkOrder, WorkType } from "@/lib/rules/types";
 import { locateWarning } from "@/lib/orders/locate";
 import { attachEquipment, boardEquipment } from "@/lib/equipment/snapshot";
+import { attachGear } from "@/lib/gear/snapshot";
 import { latestEventId } from "./events";
 import { placedElsewhere } from "./placed-elsewhere";
 import { getPolicy } from "./policies";
@@ -69,6 +70,8 @@ interface OrderRow {
   near_energized_kv: string | null;
   phases: number;
   system_kv: string | null;
+  altitude_m: number | null;
+  elevation_m: number | null;
   version: number;
   timezone: string;
 }
@@ -101,6 +104,8 @@ const ORDER_COLUMNS = [
   "o.near_energized_kv",
   "o.phases",
   "o.system_kv",
+  "o.altitude_m",
+  "y.elevation_m",
   "o.version",
   "y.timezone",
 ];
@@ -140,6 +145,8 @@ function toRuleOrder(o: OrderRow, shifts?: ShiftMap): WorkOrder {
     nearEnergizedKv: kv(o.near_energized_kv),
     phases: o.phases === 1 ? 1 : 3,
     systemKv: kv(o.system_kv),
+    // Issue 16: the site's elevation (the order's own, else its yard's) for Table R-5.
+    altitudeM: o.altitude_m ?? o.elevation_m ?? 0,
     digs: Boolean(o.digs),
     locate: ticket && o.locate_valid_through ? { ticket, validThrough: o.locate_valid_through } : null,
     ...(shifts?.get(o.id)?.length ? { shifts: shifts.get(o.id) } : {}),
@@ -220,13 +227,13 @@ export async function buildSnapshot(
   if (workerIds.length === 0) {
     return {
       policy,
-      snapshot: await attachEquipment(db, organisationId, opts.orders.map((o) => o.id), from, to, {
+      snapshot: await attachGear(db, await attachEquipment(db, organisationId, opts.orders.map((o) => o.id), from, to, {
         timezone,
         policy: policy.rules,
         workers: [],
         workOrders: opts.orders.map((o) => toRuleOrder(o, shiftsOf)),
         assignments: [],
-      } satisfies DaySnapshot, ruleOrdersOf(db)),
+      } satisfies DaySnapshot, ruleOrdersOf(db))),
       workerRows: [] as Record<string, unknown>[],
       contextAssignments: [] as LiveAssignment[],
     };
@@ -303,6 +310,8 @@ export async function buildSnapshot(
     ),
   };
   await attachEquipment(db, organisationId, opts.orders.map((o) => o.id), from, to, snapshot, ruleOrdersOf(db));
+  // Issue 16: every worker's rubber goods (empty when none) and the orders' lift plans.
+  await attachGear(db, snapshot, epochToZonedDate(opts.windowStart, timezone));
   return { policy, snapshot, workerRows, contextAssignments };
 }
 

@@ -133,6 +133,7 @@ function toListItem(r: Record<string, any>): OrderListItem {
     nearEnergizedKv: num(r.near_energized_kv),
     phases: Number(r.phases) === 1 ? 1 : 3,
     systemKv: num(r.system_kv),
+    altitudeM: num(r.altitude_m),
     locateTicket: r.locate_ticket ?? null,
     locateValidThrough: r.locate_valid_through ?? null,
     locateWarning: null,
@@ -274,6 +275,7 @@ export interface OrderTemplate {
   nearEnergizedKv?: number | null;
   phases?: 1 | 3;
   systemKv?: number | null;
+  altitudeM?: number | null;
 }
 
 export function templateColumns(t: OrderTemplate) {
@@ -297,6 +299,7 @@ export function templateColumns(t: OrderTemplate) {
     near_energized_kv: t.nearEnergizedKv ?? null,
     phases: t.phases ?? 3,
     system_kv: t.phases === 1 ? (t.systemKv ?? null) : null,
+    ...(t.altitudeM !== undefined ? { altitude_m: t.altitudeM } : {}),
   };
 }
 
@@ -433,6 +436,7 @@ const CHANGE_KEYS = [
   "nearEnergizedKv",
   "phases",
   "systemKv",
+  "altitudeM",
   "shifts",
 ] as const;
 

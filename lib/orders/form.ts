@@ -16,6 +16,7 @@ export function editValuesFromView(o: OrderView): OrderEditValues {
     nearEnergizedKv: o.nearEnergizedKv,
     phases: o.phases,
     systemKv: o.systemKv,
+    altitudeM: o.altitudeM,
     shifts: o.shifts.map((s) => ({ start: s.startLocal, end: s.endLocal })),
     emergency: o.emergency,
     crewException: (o.crewException as OrderEditValues["crewException"]) ?? null,

@@ -53,6 +53,8 @@ export interface OrderListItem {
   phases: 1 | 3;
   /** A single-phase tap's system voltage, phase to phase (kV). */
   systemKv: number | null;
+  /** The site's elevation (m) when it overrides the yard's; null = the yard's (issue 16). */
+  altitudeM: number | null;
   locateTicket: string | null;
   locateValidThrough: string | null;
   locateWarning: string | null;

@@ -80,6 +80,15 @@ const fieldShapes = {
   phases: z.union([z.literal(1), z.literal(3)], { error: "Phases is 1 (single-phase tap) or 3" }).optional().transform((v) => v ?? 3),
   /** The phase-to-phase voltage of the system a single-phase tap comes off. */
   systemKv: z.number({ error: "System voltage must be a number of kV" }).min(0).max(800).nullable().optional().transform((v) => v ?? null),
+  /** Issue 16: the site's elevation (m) when it differs from its yard's (Table R-5); null = the yard's. */
+  altitudeM: z
+    .number({ error: "Site elevation must be a whole number of metres" })
+    .int("Site elevation must be a whole number of metres")
+    .min(-500, "Site elevation must be at least -500 m")
+    .max(6000, "Site elevation above 6,000 m is beyond 1910.269 Table R-5")
+    .nullable()
+    .optional()
+    .transform((v) => v ?? null),
   /** A multi-day order's worked shifts, wall clock in the yard's zone. */
   shifts: shiftList.optional().transform((v) => v ?? []),
 };

@@ -492,6 +492,25 @@ export function OrderForm({ mode, yards, workTypes, initial, seats = [], orderId
               <FieldError id="nearEnergizedKv-error" msg={err("nearEnergizedKv")} />
             </div>
             <div>
+              <label className="label" htmlFor="altitudeM">
+                Site elevation (m)
+              </label>
+              <input
+                id="altitudeM"
+                type="number"
+                step="1"
+                className="field"
+                placeholder="the yard's"
+                {...register("altitudeM", { setValueAs: nullableNumber })}
+                aria-invalid={err("altitudeM") ? true : undefined}
+                aria-describedby={err("altitudeM") ? "altitudeM-hint altitudeM-error" : "altitudeM-hint"}
+              />
+              <p id="altitudeM-hint" className="mt-1 text-xs text-ink-500">
+                Leave empty to use the yard&apos;s elevation. Above 900 m the minimum approach distance grows (29 CFR 1910.269 Table R-5).
+              </p>
+              <FieldError id="altitudeM-error" msg={err("altitudeM")} />
+            </div>
+            <div>
               <label className="label" htmlFor="crewException">
                 Two-person exception
               </label>

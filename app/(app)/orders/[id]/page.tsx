@@ -14,6 +14,7 @@ import type { SeriesTemplate } from "@/lib/orders/series";
 import { CREW_EXCEPTION_LABEL, STATUS_LABEL, STATUS_TONE } from "@/lib/orders/status";
 import { floating, floatingToLocal, repeatFormFrom } from "@/lib/recurrence-core";
 import { OrderForm, type OrderFormShape } from "../order-form";
+import { OrderFigures } from "./figures";
 
 export const metadata = { title: "Work order" };
 
@@ -179,6 +180,8 @@ export default async function OrderPage({ params, searchParams }: { params: Prom
           )}
         </div>
       </section>
+
+      <OrderFigures conn={conn} organisationId={user.organisationId} order={order} canEdit={!readOnly && order.status !== "cancelled"} />
 
       <h2 className="mb-2 text-lg font-extrabold tracking-tight">{readOnly ? "Details" : "Edit this order"}</h2>
       {order.series && !readOnly && (
