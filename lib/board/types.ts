@@ -114,8 +114,21 @@ export interface BoardPayload {
   /** Equipment (issue 16): the organisation's trucks and trailers, and the bookings on this board's orders. */
   equipment?: Equipment[];
   equipmentBookings?: EquipmentBooking[];
+  /** Issue 18: pool workers held on other yards' orders that day (shown as placed there). */
+  placedElsewhere?: PlacedElsewhere[];
   fakesEnabled: boolean;
   generatedAt: string;
+}
+
+/** A worker held on another yard's order that overlaps the board's day. */
+export interface PlacedElsewhere {
+  workerId: number;
+  orderId: number;
+  number: string;
+  yardCode: string;
+  yardName: string;
+  start: string;
+  end: string;
 }
 
 export const findingKey = (f: { rule: string; workOrderId: string | number; workerId: string | number | null }) =>

@@ -360,3 +360,98 @@ export async function findingsAfter(
   const out = ids.map(String);
   return { orderIds: out, findings: findingsForOrders(snapshot, out) };
 }
+
+/**
+ * Swaps two placed workers (issue 18): A takes B's seat and B takes A's, in one transaction on
+ * the same locked path as a move — both orders locked in id order, then both workers in id
+ * order, each assignment's version checked, each worker checked against double booking on the
+ * order they go to. A seat already told (sent, delivered, confirmed) ends and a fresh draft
+ * starts, as a move does.
+ */
+export async function swapAssignments(
+  db: Knex,
+  user: SessionActor,
+  input: { a: { id: number; version: number }; b: { id: number; version: number } },
+): Promise<WriteResult> {
+  if (input.a.id === input.b.id) {
+    throw new ApiError(422, "Invalid b.id: a worker cannot swap with themselves.", { issues: [{ field: "b.id", message: "Same assignment as a.id" }] });
+  }
+  return withRetry(() =>
+    db.transaction(async (trx) => {
+      const [ra, rb] = await Promise.all([
+        trx("assignments").where({ id: input.a.id }).first(),
+        trx("assignments").where({ id: input.b.id }).first(),
+      ]);
+      if (!ra || ra.holds_position === null || !rb || rb.holds_position === null) {
+        throw new ApiError(404, "No such assignment on the board (it may have been removed).");
+      }
+      const orders = await lockOrders(trx, user.organisationId, [ra.work_order_id, rb.work_order_id]);
+      const oa = orders.get(ra.work_order_id);
+      const ob = orders.get(rb.work_order_id);
+      if (!oa || !ob) throw new ApiError(404, "No such work order.");
+      assertOpen(oa);
+      assertOpen(ob);
+      const lockedRows = await trx("assignments").whereIn("id", [input.a.id, input.b.id].sort((x, y) => x - y)).orderBy("id").forUpdate();
+      const la = lockedRows.find((r) => r.id === input.a.id);
+      const lb = lockedRows.find((r) => r.id === input.b.id);
+      if (!la || !lb || la.holds_position === null || lb.holds_position === null || la.version !== input.a.version || lb.version !== input.b.version) {
+        throw new ConflictError("One of these assignments was changed by someone else; the cards have been refreshed.", await crewState(trx, [oa.id, ob.id]));
+      }
+      if (la.worker_id === lb.worker_id) {
+        throw new ApiError(422, "Invalid b.id: both seats hold the same worker.", { issues: [{ field: "b.id", message: "Same worker as a.id" }] });
+      }
+      const ids = [la.worker_id, lb.worker_id].sort((x: number, y: number) => x - y);
+      const workers = new Map<number, { first_name: string; last_name: string }>();
+      for (const wid of ids) workers.set(wid, await lockWorker(trx, user.organisationId, wid));
+      const nameOf = (wid: number) => `${workers.get(wid)!.first_name} ${workers.get(wid)!.last_name}`;
+      const [seatA, seatB] = await Promise.all([seatOf(trx, la.position_id), seatOf(trx, lb.position_id)]);
+      // A goes to B's order, B to A's: neither may be on a third order that overlaps where they go.
+      await assertNoClash(trx, la.worker_id, ob, nameOf(la.worker_id), la.id);
+      await assertNoClash(trx, lb.worker_id, oa, nameOf(lb.worker_id), lb.id);
+
+      // Free both seats first (holds_position is unique), then take the other one.
+      await trx("assignments").whereIn("id", [la.id, lb.id]).update({ holds_position: null });
+      const place = async (row: typeof la, seat: { id: number; work_order_id: number }) => {
+        if (row.status === "draft") {
+          await trx("assignments").where({ id: row.id }).update({
+            work_order_id: seat.work_order_id,
+            position_id: seat.id,
+            holds_position: seat.id,
+            version: row.version + 1,
+            updated_at: new Date(),
+          });
+          return row.id as number;
+        }
+        await trx("assignments").where({ id: row.id }).update({ status: "removed", version: row.version + 1, updated_at: new Date() });
+        const [id] = await trx("assignments").insert({
+          work_order_id: seat.work_order_id,
+          position_id: seat.id,
+          worker_id: row.worker_id,
+          holds_position: seat.id,
+          status: "draft",
+          reply_code: await newReplyCode(trx),
+          created_by: user.id,
+        });
+        return id as number;
+      };
+      const newA = await place(la, seatB);
+      const newB = await place(lb, seatA);
+      const lapsed = (await crewChanged(trx, oa.id)).lapsed + (ob.id !== oa.id ? (await crewChanged(trx, ob.id)).lapsed : 0);
+      await audit(trx, user, user.organisationId, "assignment.swap", "assignment", newA, {
+        a: { worker: nameOf(la.worker_id), workerId: la.worker_id, from: { order: oa.number, position: seatA.position }, to: { order: ob.number, position: seatB.position } },
+        b: { worker: nameOf(lb.worker_id), workerId: lb.worker_id, from: { order: ob.number, position: seatB.position }, to: { order: oa.number, position: seatA.position } },
+        assignmentIds: [newA, newB],
+        overridesLapsed: lapsed,
+      });
+      for (const o of new Map([oa, ob].map((x) => [x.id, x])).values()) {
+        await boardEvent(trx, { organisationId: user.organisationId, yardId: o.yard_id, day: o.work_date, kind: "assignment", payload: { orderId: o.id } });
+      }
+      return {
+        assignmentId: newA,
+        orderIds: [...new Set([oa.id, ob.id])],
+        workerIds: ids,
+        current: await crewState(trx, [...new Set([oa.id, ob.id])]),
+      };
+    }, TX),
+  );
+}

@@ -44,3 +44,12 @@ export const overrideSchema = z.object({
 
 export type CreateAssignmentInput = z.infer<typeof createAssignmentSchema>;
 export type OverrideInput = z.infer<typeof overrideSchema>;
+
+const assignmentRef = (name: string) =>
+  z.object({
+    id: id(`${name}.id`),
+    version: z.number({ error: `${name}.version is required` }).int().min(0),
+  });
+
+/** Swap two placed workers (issue 18): each side names its assignment and the version seen. */
+export const swapAssignmentsSchema = z.object({ a: assignmentRef("a"), b: assignmentRef("b") }).strict();

@@ -249,6 +249,20 @@ export const ROUTES: RouteEntry[] = [
     sample: async (fx) => ({ path: `/api/assignments/${(await fx.placed()).assignmentId}`, body: { version: 1 } }),
   },
   {
+    // Issue 18: two placed workers trade seats (two fresh orders of the fixture's day).
+    method: "POST",
+    route: "/api/assignments/swap",
+    roles: D,
+    status: 200,
+    audit: true,
+    fuzz: "json",
+    sample: async (fx) => {
+      const a = await fx.placed();
+      const b = await fx.sentTo(fx.marcus.workerId);
+      return { path: "/api/assignments/swap", body: { a: { id: a.assignmentId, version: 1 }, b: { id: b.assignmentId, version: 1 } } };
+    },
+  },
+  {
     method: "POST",
     route: "/api/assignments/[id]/resend",
     roles: D,

@@ -31,6 +31,7 @@ import { PoolPanel } from "./pool-panel";
 import { FindingRow, OverrideDialog } from "./findings";
 import { call, HttpError, useBoardData, useBoardMutations, useEngine, useLiveEvents, useToast, type Change } from "./use-board";
 import { SendCrewsButton } from "./send-crews";
+import { describeChange, inverseOf } from "./undo";
 import { FillPanel } from "./fill-panel";
 import { useEquipmentDnd } from "./use-equipment";
 import { EquipmentPool } from "./equipment-pool";
@@ -63,6 +64,8 @@ export function BoardClient({
   const [activeId, setActiveId] = useState<string | null>(null);
   const [overId, setOverId] = useState<string | null>(null);
   const [overriding, setOverriding] = useState<Finding | null>(null);
+  // Undo (issue 18): the changes made here, newest last; undo sends the opposite change.
+  const [history, setHistory] = useState<{ change: Change; label: string }[]>([]);
   useLiveEvents(key, data?.cursor, activeId !== null || mutation.isPending);
   // Equipment (issue 16): trucks dragged with the same sensors; their own locked write path.
   const equipmentDnd = useEquipmentDnd(key, data, notify);
@@ -109,8 +112,15 @@ export function BoardClient({
           if (!list.includes(o.number)) list.push(o.number);
           m.set(s.assignment.workerId, list);
         }
+    // Held on another yard's order that day: placed there, not free (issue 18).
+    for (const e of data?.placedElsewhere ?? []) {
+      const list = m.get(e.workerId) ?? [];
+      const label = `${e.number} at ${e.yardName}`;
+      if (!list.includes(label)) list.push(label);
+      m.set(e.workerId, list);
+    }
     return m;
-  }, [data?.orders]);
+  }, [data?.orders, data?.placedElsewhere]);
 
   // While a write is in flight the view shows the client engine's findings over the
   // optimistic crew; once the server answers, its own findings (the authority) come back.
@@ -188,7 +198,10 @@ export function BoardClient({
     setOverId(null);
     if (!from || !to || from.kind === "pool-zone") return;
     let change: Change | null = null;
-    if (from.kind === "pool" && to.kind === "seat") {
+    if (from.kind === "seat" && to.kind === "seat" && to.n !== from.n && seatIndex.get(to.n)?.workerId != null) {
+      // Dropped on another placed worker: the two trade seats (issue 18).
+      change = { kind: "swap", positionA: from.n, positionB: to.n };
+    } else if (from.kind === "pool" && to.kind === "seat") {
       const target = seatIndex.get(to.n);
       if (target?.workerId !== null) return notify("That position is taken: move its worker out first.", "error");
       change = { kind: "add", positionId: to.n, workerId: from.n };
@@ -202,8 +215,49 @@ export function BoardClient({
         change = { kind: "move", assignment: seat.assignment, fromPositionId: from.n, positionId: to.n };
       }
     }
-    if (change) mutation.mutate(change);
+    if (change) apply(change);
   }
+
+  const nameOf = useCallback((id: number) => workers.get(id)?.name ?? "a worker", [workers]);
+
+  /** Every board change goes through here: the locked write path, then into the undo history. */
+  function apply(change: Change, opts: { undo?: boolean } = {}) {
+    const label = data ? describeChange(change, data, nameOf) : "the last change";
+    mutation
+      .mutateAsync(change)
+      .then(() => {
+        if (!opts.undo) setHistory((h) => [...h.slice(-19), { change, label }]);
+      })
+      .catch(() => {
+        /* onError has put the board back and said why */
+      });
+  }
+
+  const undo = useCallback(() => {
+    const last = history[history.length - 1];
+    if (!last || !data || mutation.isPending) return;
+    const inverse = inverseOf(last.change, data);
+    setHistory((h) => h.slice(0, -1));
+    if (!inverse) {
+      notify(`Cannot undo ${last.label}: those seats have changed since.`, "error");
+      return;
+    }
+    notify(`Undoing ${last.label}…`, "ok");
+    apply(inverse, { undo: true });
+  }, [history, data, mutation.isPending]); // eslint-disable-line react-hooks/exhaustive-deps
+
+  // Ctrl+Z / Cmd+Z undoes the last board change, except while typing in a field.
+  useEffect(() => {
+    const onKey = (e: KeyboardEvent) => {
+      if (!(e.ctrlKey || e.metaKey) || e.shiftKey || e.altKey || e.key.toLowerCase() !== "z") return;
+      const t = e.target as HTMLElement | null;
+      if (t && (t.isContentEditable || ["INPUT", "TEXTAREA", "SELECT"].includes(t.tagName))) return;
+      e.preventDefault();
+      undo();
+    };
+    window.addEventListener("keydown", onKey);
+    return () => window.removeEventListener("keydown", onKey);
+  }, [undo]);
 
   async function submitOverride(reason: string): Promise<string | null> {
     if (!overriding) return null;
@@ -259,6 +313,10 @@ export function BoardClient({
         setOverId(null);
       }}
       accessibility={{ announcements: makeAnnouncements(describe), screenReaderInstructions }}
+      // Issue 18: scroll only when the pointer is right at the window's edge (5 % of its height,
+      // not dnd-kit's default 20 %), and slowly; the pool is sticky, so lower orders are reached
+      // by scrolling the page first, not by dragging into the edge.
+      autoScroll={{ threshold: { x: 0.05, y: 0.05 }, acceleration: 3 }}
     >
       <div className="mb-4 flex flex-wrap items-end justify-between gap-3">
         <div>
@@ -288,6 +346,20 @@ export function BoardClient({
               </option>
             ))}
           </select>
+          {(role === "dispatcher" || role === "supervisor") && (
+            <button
+              type="button"
+              className="btn-quiet"
+              data-testid="undo"
+              disabled={history.length === 0 || mutation.isPending}
+              aria-keyshortcuts="Control+Z Meta+Z"
+              title={history.length ? `Undo ${history[history.length - 1].label} (Ctrl+Z)` : "Nothing to undo"}
+              onClick={undo}
+            >
+              ↶ Undo
+              <span className="sr-only">{history.length ? `: ${history[history.length - 1].label}` : ""}</span>
+            </button>
+          )}
           <FillPanel day={day} yard={yardCode} role={role} />
           <SendCrewsButton day={day} yard={yardCode} unresolved={unresolved.length} role={role} onDone={() => qc.invalidateQueries({ queryKey: key })} notify={notify} />
         </div>
@@ -301,7 +373,7 @@ export function BoardClient({
         ) : (
           <Badge tone="clear">No unresolved blocks</Badge>
         )}
-        {warnCount > 0 && <Badge tone="warn">{warnCount} warnings</Badge>}
+        {warnCount > 0 && <Badge tone="warn">{warnCount} warning{warnCount === 1 ? "" : "s"}</Badge>}
         <span className="text-ink-500">
           {data.orders.length} orders · {data.orders.reduce((n, o) => n + o.seats.filter((s) => !s.assignment).length, 0)} open positions
         </span>
@@ -323,7 +395,7 @@ export function BoardClient({
       <SafetyNote className="mb-4" />
 
       <div className="grid gap-4 md:grid-cols-[260px_minmax(0,1fr)] lg:grid-cols-[320px_minmax(0,1fr)]">
-        <aside className="card min-w-0 p-3 md:self-start">
+        <aside className="card min-w-0 p-3 md:sticky md:top-3 md:max-h-[calc(100vh-1.5rem)] md:self-start md:overflow-y-auto" data-testid="pool-panel">
           <PoolPanel payload={data} placedOn={placedOn} />
           <EquipmentPool payload={data} />
         </aside>

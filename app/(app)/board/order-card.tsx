@@ -201,11 +201,10 @@ export const OrderCardView = memo(function OrderCardView({
           </p>
         </div>
         <div className="flex shrink-0 flex-col items-end gap-1" data-testid="crew-state">
-          {blocks.length > 0 ? (
-            <Badge tone="block">{blocks.length} block{blocks.length > 1 ? "s" : ""}</Badge>
-          ) : (
-            <Badge tone="clear">Clear</Badge>
-          )}
+          {/* "Clear" only when nothing stops the crew: no unresolved block, and not held. */}
+          {blocks.length > 0 && <Badge tone="block">{blocks.length} block{blocks.length > 1 ? "s" : ""}</Badge>}
+          {onHold && <Badge tone="block">On hold</Badge>}
+          {blocks.length === 0 && !onHold && <Badge tone="clear">Clear</Badge>}
           {warns.length > 0 && <Badge tone="warn">{warns.length} warn</Badge>}
           {waived.length > 0 && <Badge tone="waived">{waived.length} overridden</Badge>}
         </div>

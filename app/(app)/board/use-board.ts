@@ -77,10 +77,34 @@ export function useLiveEvents(key: BoardKey, cursor: number | undefined, paused:
 export type Change =
   | { kind: "add"; positionId: number; workerId: number }
   | { kind: "move"; assignment: SeatAssignment; fromPositionId: number; positionId: number }
-  | { kind: "remove"; assignment: SeatAssignment; fromPositionId: number };
+  | { kind: "remove"; assignment: SeatAssignment; fromPositionId: number }
+  /** Issue 18: two placed workers trade seats (one request, one transaction). */
+  | { kind: "swap"; positionA: number; positionB: number };
+
+/** The two seats' assignments exchanged, for the optimistic view of a swap. */
+function swapLocally(p: BoardPayload, c: { positionA: number; positionB: number }): BoardPayload {
+  const seatPos = new Map<number, { orderId: number; position: Position; a: SeatAssignment | null }>();
+  for (const o of p.orders) for (const s of o.seats) seatPos.set(s.id, { orderId: o.id, position: s.position, a: s.assignment });
+  const A = seatPos.get(c.positionA);
+  const B = seatPos.get(c.positionB);
+  if (!A?.a || !B?.a) return p;
+  const orders = p.orders.map((o) => ({
+    ...o,
+    seats: o.seats.map((s) =>
+      s.id === c.positionA ? { ...s, assignment: { ...B.a!, status: "draft" as const } } : s.id === c.positionB ? { ...s, assignment: { ...A.a!, status: "draft" as const } } : s,
+    ),
+  }));
+  const key = (x: { orderId: number; position: Position }, w: number) => `${x.orderId}|${w}|${x.position}`;
+  const drop = new Set([key(A, A.a.workerId), key(B, B.a.workerId)]);
+  const assignments: Assignment[] = p.snapshot.assignments.filter((x) => !drop.has(`${x.workOrderId}|${x.workerId}|${x.position}`));
+  assignments.push({ workOrderId: String(A.orderId), workerId: String(B.a.workerId), position: A.position });
+  assignments.push({ workOrderId: String(B.orderId), workerId: String(A.a.workerId), position: B.position });
+  return { ...p, orders, snapshot: { ...p.snapshot, assignments } };
+}
 
 /** The payload with one change applied, for the optimistic view. */
 export function applyLocally(p: BoardPayload, c: Change): BoardPayload {
+  if (c.kind === "swap") return swapLocally(p, c);
   const seatPos = new Map<number, { orderId: number; position: Position }>();
   for (const o of p.orders) for (const s of o.seats) seatPos.set(s.id, { orderId: o.id, position: s.position });
   let moving: SeatAssignment | null = null;
@@ -135,6 +159,15 @@ export function useBoardMutations(key: BoardKey, notify: (msg: string, tone?: "o
         for (const o of latest?.orders ?? []) for (const s of o.seats) if (s.id === positionId) return { order: o.version, a: s.assignment };
         return null;
       };
+      if (c.kind === "swap") {
+        const A = versionOf(c.positionA)?.a;
+        const B = versionOf(c.positionB)?.a;
+        if (!A || !B) throw new HttpError(409, "One of these seats is empty now; nothing was swapped.", {});
+        return call("/api/assignments/swap", {
+          method: "POST",
+          body: JSON.stringify({ a: { id: A.id, version: A.version }, b: { id: B.id, version: B.version } }),
+        });
+      }
       if (c.kind === "add") {
         return call("/api/assignments", {
           method: "POST",
