@@ -1001,8 +1001,10 @@ export async function fill(problem: FillProblem, settingsIn: Partial<FillSetting
     const timeTrouble = new Set<string>();
     for (const f of findingsForOrders(after, ids)) {
       if (f.level !== "block") continue;
-      // LOCATE is about the order's ticket, not its crew: no staffing fixes or breaks it.
-      if (f.rule === "LOCATE") {
+      // LOCATE is about the order's ticket, not its crew: no staffing fixes or breaks it. The same
+      // for the order's truck and lift (EQUIPMENT, EQUIPMENT_BOOKED, RIGGING; issue 16): the
+      // trucks are chosen before the people (lib/equipment/fill.ts), so a block left is carried.
+      if (f.rule === "LOCATE" || f.rule === "EQUIPMENT" || f.rule === "EQUIPMENT_BOOKED" || f.rule === "RIGGING") {
         if (proposal.has(f.workOrderId)) push(carriedOut, f.workOrderId, f);
         continue;
       }

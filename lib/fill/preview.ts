@@ -5,6 +5,8 @@ import type { FillMeta } from "./load";
 import type { FillResult } from "./types";
 
 export interface FillPreview {
+  /** Issue 16: the trucks proposed with the crews (app/api/fill/route.ts adds them). */
+  trucks?: Array<{ orderId: number; equipmentId: number; unitNumber: string; name: string; kind: string; reason: string }>;
   day: string;
   yard: { code: string; name: string };
   proposals: Array<{

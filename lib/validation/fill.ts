@@ -23,6 +23,11 @@ export const fillAcceptSchema = z.object({
     .array(z.object({ positionId: id("positionId"), workerId: id("workerId") }), { error: "proposals must be a list" })
     .min(1, "Choose at least one proposal")
     .max(2000, "At most 2000 proposals at once"),
+  /** Issue 16: the trucks the fill proposed for these orders. */
+  trucks: z
+    .array(z.object({ workOrderId: id("workOrderId"), equipmentId: id("equipmentId") }), { error: "trucks must be a list" })
+    .max(500, "At most 500 trucks at once")
+    .default([]),
 });
 
 export const calloutQuerySchema = z.object({

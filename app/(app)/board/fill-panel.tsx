@@ -20,6 +20,8 @@ interface AcceptAnswer {
   placed: number;
   refused: number;
   results: Array<{ positionId: number; workerId: number; ok: boolean; error?: string }>;
+  /** Issue 16: the proposed trucks, booked or refused. */
+  trucks?: Array<{ workOrderId: number; equipmentId: number; ok: boolean; error?: string }>;
   blocks: Array<{ rule: string; workOrderId: string; workerId: string | null; message: string }>;
 }
 
@@ -96,10 +98,13 @@ function FillDialog({ day, yard, onClose }: { day: string; yard: string; onClose
     if (!preview) return;
     const list = preview.proposals.filter((p) => all || chosen.has(p.positionId)).map((p) => ({ positionId: p.positionId, workerId: p.workerId }));
     if (!list.length) return;
+    // A proposed truck goes with its order's crew (any chosen seat of the order takes it).
+    const taken = new Set(preview.proposals.filter((p) => all || chosen.has(p.positionId)).map((p) => p.orderId));
+    const trucks = (preview.trucks ?? []).filter((t) => taken.has(t.orderId)).map((t) => ({ workOrderId: t.orderId, equipmentId: t.equipmentId }));
     setStage("accepting");
     setError(null);
     try {
-      const r = await call<AcceptAnswer>("/api/fill/accept", { method: "POST", body: JSON.stringify({ date: day, yard, proposals: list }) });
+      const r = await call<AcceptAnswer>("/api/fill/accept", { method: "POST", body: JSON.stringify({ date: day, yard, proposals: list, trucks }) });
       setAnswer(r);
       setStage("accepted");
       await qc.invalidateQueries({ queryKey: ["board", day, yard] });
@@ -250,9 +255,17 @@ function FillDialog({ day, yard, onClose }: { day: string; yard: string; onClose
                             <Badge tone="warn">Part of a crew: the order stays short and the crew rules will block it</Badge>
                           </p>
                         )}
+                        {(preview.trucks ?? [])
+                          .filter((t) => t.orderId === o.orderId)
+                          .map((t) => (
+                            <p key={`t${t.equipmentId}`} className="mt-1 text-xs text-ink-700" data-testid={`fill-truck-${o.number}`}>
+                              <span className="font-extrabold uppercase tracking-wide text-ink-500">Truck</span> <span className="font-bold">{t.unitNumber}</span> {t.name} · {t.reason}
+                            </p>
+                          ))}
                         {o.carried.map((f, i) => (
                           <p key={i} className="mt-1 text-xs text-ink-700">
-                            <Badge tone="block">{f.rule}</Badge> kept from a placement made before the fill: {f.message}
+                            <Badge tone="block">{f.rule}</Badge>{" "}
+                            {["EQUIPMENT", "EQUIPMENT_BOOKED", "RIGGING", "LOCATE"].includes(f.rule) ? "stays on the order (no crew change fixes it)" : "kept from a placement made before the fill"}: {f.message}
                           </p>
                         ))}
                         {o.overridesLapse.map((v, i) => (

@@ -9,6 +9,7 @@ import { loadFillProblem } from "@/lib/fill/load";
 import { toPreview } from "@/lib/fill/preview";
 import { DEFAULT_SETTINGS } from "@/lib/fill/types";
 import { fillRequestSchema } from "@/lib/validation/fill";
+import { fillTrucks } from "@/lib/equipment/fill-load";
 
 export const dynamic = "force-dynamic";
 export const maxDuration = 120;
@@ -22,10 +23,20 @@ export const POST = handler(async (req) => {
   await yardScope(user, "edit", { yardCode: input.yard });
   const { yard } = await pickYard(db(), user.organisationId, input.yard);
   if (!yard || yard.code.toLowerCase() !== input.yard.toLowerCase()) throw new ApiError(404, `No yard with code ${input.yard}.`);
-  const { problem, meta } = await loadFillProblem(db(), { organisationId: user.organisationId, yard, day: input.date });
+  const loaded = await loadFillProblem(db(), { organisationId: user.organisationId, yard, day: input.date });
+  const { meta } = loaded;
+  // Issue 16: trucks first (a fast pass), so the people's solve sees each order with its truck.
+  const { problem, trucks } = await fillTrucks(db(), user.organisationId, loaded.problem);
   const result = await fill(problem, {
     timeLimitSeconds: input.timeLimitSeconds ?? DEFAULT_SETTINGS.timeLimitSeconds,
     gap: input.gap ?? DEFAULT_SETTINGS.gap,
   });
-  return json(toPreview(result, meta));
+  const staffed = new Set(result.proposals.map((p) => p.orderId));
+  return json({
+    ...toPreview(result, meta),
+    // Trucks for the orders the fill staffs (an order left open keeps its truck for the dispatcher to choose).
+    trucks: trucks
+      .filter((t) => staffed.has(t.orderId))
+      .map((t) => ({ orderId: Number(t.orderId), equipmentId: Number(t.equipmentId), unitNumber: t.unitNumber, name: t.name, kind: t.kind, reason: t.reason })),
+  });
 });

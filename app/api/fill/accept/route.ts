@@ -7,6 +7,7 @@ import { audit } from "@/lib/data/audit";
 import { createAssignment, findingsAfter } from "@/lib/data/assignments";
 import { pickYard } from "@/lib/data/yards";
 import { fillAcceptSchema } from "@/lib/validation/fill";
+import { bookEquipment } from "@/lib/equipment/data";
 
 export const dynamic = "force-dynamic";
 
@@ -55,6 +56,23 @@ export const POST = handler(async (req) => {
       orderIds.add(seat.work_order_id);
     }
   }
+  // Issue 16: the proposed trucks, each through the locked booking write (409 when it went elsewhere meanwhile).
+  const trucks: Array<{ workOrderId: number; equipmentId: number; ok: boolean; status?: number; error?: string }> = [];
+  for (const t of input.trucks) {
+    const on = await db()("work_orders").where({ id: t.workOrderId }).first("organisation_id", "yard_id", "work_date");
+    if (!on || on.organisation_id !== user.organisationId || on.yard_id !== yard.id || on.work_date !== input.date) {
+      trucks.push({ ...t, ok: false, status: 422, error: `Order ${t.workOrderId} is not on the ${yard.code} board for ${input.date}.` });
+      continue;
+    }
+    try {
+      await bookEquipment(db(), user, t);
+      trucks.push({ ...t, ok: true });
+      orderIds.add(t.workOrderId);
+    } catch (err) {
+      if (!(err instanceof ApiError)) throw err;
+      trucks.push({ ...t, ok: false, status: err.status, error: err.message });
+    }
+  }
   const placed = results.filter((r) => r.ok).length;
   const refused = results.length - placed;
   const recheck = orderIds.size ? await findingsAfter(db(), user.organisationId, [...orderIds], [...workerIds]) : { orderIds: [], findings: [] };
@@ -63,12 +81,14 @@ export const POST = handler(async (req) => {
     day: input.date,
     placed,
     refused,
+    trucks: trucks.filter((t) => t.ok).length,
     orders: [...new Set(seats.filter((s) => orderIds.has(s.work_order_id)).map((s) => s.number))],
   });
   return json({
     placed,
     refused,
     results,
+    trucks,
     recheck,
     blocks: recheck.findings.filter((f) => f.level === "block"),
   });
