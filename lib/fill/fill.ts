@@ -396,7 +396,7 @@ export async function fill(problem: FillProblem, settingsIn: Partial<FillSetting
       const J = sumPeople(workersOf((w) => isJourneyLevel(w.classification)));
       const O = sumPeople(workersOf(qualifiedOperator));
       const A = sumPeople(workersOf((w) => w.classification === "apprentice"));
-      const crewMinBlocks = twoWorkerRuleApplies(order) && (!order.exception || policy.levels?.CREW_MIN === "block");
+      const crewMinBlocks = twoWorkerRuleApplies(order, ix.equipment.of(o)) && (!order.exception || policy.levels?.CREW_MIN === "block");
       if (crewMinBlocks && jE + oE < 2 && !off.has("CREW_MIN")) {
         need.add("CREW_MIN");
         lp.row([...J, ...O, ...A, [yc, -2]], -(jE + oE + aE), Infinity);

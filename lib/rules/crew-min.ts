@@ -10,12 +10,13 @@ import {
   hasJourneyLevel,
   HIGH_VOLTAGE_KV,
   nearAbove,
+  onOrNearAbove,
   plural,
   type RuleCheck,
 } from "./common";
 import { kvNumber, voltageLabel } from "./labels";
 import type { SnapshotIndex } from "./snapshot-index";
-import type { CrewException, Finding, Worker, WorkOrder } from "./types";
+import type { CrewException, Equipment, Finding, Worker, WorkOrder } from "./types";
 
 /** The paragraph as a whole (kept for callers that name it). */
 export const CREW_MIN_SOURCE = "29 CFR 1910.269(l)(2)(i)";
@@ -49,33 +50,53 @@ function kvWords(order: WorkOrder): string {
 }
 
 /**
+ * The mechanical equipment of (l)(2)(i)(D) on an order: a digger_derrick order's derrick, and,
+ * when the day tracks equipment, any digger derrick or non-insulated bucket truck on it (an
+ * insulated aerial lift is the paragraph's own exception). Pickups, trailers and "other" are
+ * not counted.
+ */
+export function mechanicalEquipment(order: WorkOrder, equipment: readonly Equipment[] = []): string[] {
+  const out: string[] = [];
+  for (const e of equipment) {
+    if (e.kind === "digger_derrick" || (e.kind === "bucket_truck" && !e.insulated)) {
+      out.push(e.kind === "digger_derrick" ? `${e.name} (a digger derrick)` : `${e.name} (a bucket truck that is not insulated)`);
+    }
+  }
+  if (out.length === 0 && order.workType === "digger_derrick") out.push("a digger derrick");
+  return out;
+}
+
+/**
  * Corrections 2: installation, removal or repair work of any work type except patrol, when the
  * work is energized above 0.6 kV ((l)(2)(i)(A), lines and equipment energized) or when exposed
- * parts nearby are above 0.6 kV ((l)(2)(i)(B)); a digger derrick is mechanical equipment other
- * than an insulated aerial lift, so near parts above 0.6 kV (l)(2)(i)(D) applies to it as well.
- * Null when the minimum does not apply.
+ * parts nearby are above 0.6 kV ((l)(2)(i)(B)); and, for any work type, mechanical equipment
+ * other than an insulated aerial lift near parts above 0.6 kV ((l)(2)(i)(D)). Null when the
+ * minimum does not apply.
  */
-export function twoWorkerBasis(order: WorkOrder): TwoWorkerBasis | null {
-  if (order.workType === "patrol") return null;
+export function twoWorkerBasis(order: WorkOrder, equipment: readonly Equipment[] = []): TwoWorkerBasis | null {
   const paragraphs: string[] = [];
   const whys: string[] = [];
-  if (energizedAbove(order, HIGH_VOLTAGE_KV)) {
+  if (order.workType === "patrol") {
+    // Patrol is outside (A) and (B); (D) below still covers a machine working near live parts.
+  } else if (energizedAbove(order, HIGH_VOLTAGE_KV)) {
     paragraphs.push("(A)");
     whys.push(`the work is energized ${kvWords(order)}`);
   } else if (nearAbove(order, HIGH_VOLTAGE_KV)) {
     paragraphs.push("(B)");
     whys.push(`exposed parts at ${kvNumber(order.nearEnergizedKv!)} kV are within reach of the de-energized work`);
   }
-  if (paragraphs.length === 0) return null;
-  if (order.workType === "digger_derrick") {
+  const machines = onOrNearAbove(order, HIGH_VOLTAGE_KV) ? mechanicalEquipment(order, equipment) : [];
+  if (machines.length > 0) {
     paragraphs.push("(D)");
-    whys.push("a digger derrick is mechanical equipment working near them");
+    const near = paragraphs.length === 1 ? " near parts energized above 600 V" : " near them";
+    whys.push(`${machines.join(" and ")} ${machines.length === 1 ? "is" : "are"} mechanical equipment working${near}`);
   }
+  if (paragraphs.length === 0) return null;
   return { paragraphs: paragraphs.map((p) => `29 CFR 1910.269(l)(2)(i)${p}`), why: whys.join(" and ") };
 }
 
-export function twoWorkerRuleApplies(order: WorkOrder): boolean {
-  return twoWorkerBasis(order) !== null;
+export function twoWorkerRuleApplies(order: WorkOrder, equipment: readonly Equipment[] = []): boolean {
+  return twoWorkerBasis(order, equipment) !== null;
 }
 
 /**
@@ -122,7 +143,7 @@ export const crewMin: RuleCheck = (orders, ix) => {
       });
     }
 
-    const basis = twoWorkerBasis(order);
+    const basis = twoWorkerBasis(order, ix.equipment.of(order.id));
     if (basis) {
       const qualified = qualifiedCount(people, ix, order);
       if (qualified < 2) {

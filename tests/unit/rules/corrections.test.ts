@@ -26,7 +26,7 @@ import { rest } from "@/lib/rules/rest";
 import { firstAid } from "@/lib/rules/first-aid";
 import { operatorCert } from "@/lib/rules/operator-cert";
 import { climbCert } from "@/lib/rules/climb-cert";
-import type { Finding, RuleCode } from "@/lib/rules/types";
+import type { Equipment, Finding, RuleCode } from "@/lib/rules/types";
 import { type A, ALL_CREDS, brief, day, order, run, t, worker, type OrderOpts } from "./fixtures";
 
 const NO_RESCUE = { climbing: "2028-03-31", first_aid_cpr: "2028-03-31", cdl_b: "2028-03-31" };
@@ -122,6 +122,25 @@ describe("Corrections 1: operators count only with qualified_electrical (letter 
     const ws = crew.map(([id, c, creds]) => worker(id, c, { credentials: creds }));
     const found = checkDay(day(ws, [order("o", { workType: "other" })], [["o", crew[0][0], "lead"], ...crew.slice(1).map(([id]): A => ["o", id, "ground"])]));
     expect(brief(only(found, "CREW_MIN"))).toEqual(expected);
+  });
+});
+
+describe("Corrections 2: (l)(2)(i)(D) mechanical equipment other than an insulated aerial lift (letter 1994-11-08: the exception is only in (D))", () => {
+  const eq = (id: string, kind: Equipment["kind"], insulated = false): Equipment => ({ id, name: `Unit ${id}`, kind, insulated, dielectricTestedOn: "2027-01-10", licence: null });
+  const cases: Array<{ name: string; order: OrderOpts; equipment: Equipment[]; expected: string[]; source?: RegExp }> = [
+    { name: "(l)(2)(i)(D): a patrol with a derrick near a live 12.47 kV line", order: { workType: "patrol" }, equipment: [eq("d", "digger_derrick")], expected: ["o/-/block"], source: /^29 CFR 1910\.269\(l\)\(2\)\(i\)\(D\);/ },
+    { name: "(l)(2)(i)(D): a patrol with only a pickup stays outside", order: { workType: "patrol" }, equipment: [eq("p", "pickup")], expected: [] },
+    { name: "(l)(2)(i)(A),(D): bucket work from a bucket truck that is not insulated", order: { workType: "bucket" }, equipment: [eq("b", "bucket_truck")], expected: ["o/-/block"], source: /\(l\)\(2\)\(i\)\(A\), 29 CFR 1910\.269\(l\)\(2\)\(i\)\(D\)/ },
+    { name: "(l)(2)(i)(A) only: an insulated aerial lift is (D)'s exception, (A) still applies (letter 1994-11-08)", order: { workType: "bucket" }, equipment: [eq("b", "bucket_truck", true)], expected: ["o/-/block"], source: /\(l\)\(2\)\(i\)\(A\); OSHA/ },
+    { name: "(l)(2)(i)(D): a derrick on a patrol with nothing live above 600 V", order: { workType: "patrol", voltageKv: 0.24 }, equipment: [eq("d", "digger_derrick")], expected: [] },
+  ];
+  it.each(cases)("$name", ({ order: o, equipment, expected, source }) => {
+    const s = day([worker("j", "journeyman")], [order("o", o)], [["o", "j", "lead"]]);
+    s.equipment = equipment;
+    s.equipmentAssignments = equipment.map((e) => ({ workOrderId: "o", equipmentId: e.id }));
+    const found = only(checkDay(s), "CREW_MIN");
+    expect(brief(found)).toEqual(expected);
+    if (source) expect(found[0].source).toMatch(source);
   });
 });
 
