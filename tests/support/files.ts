@@ -22,10 +22,14 @@ export function minimalPdf(text = "Climbing evaluation"): Buffer {
   return Buffer.from(body, "latin1");
 }
 
-/** A 1×1 PNG (PNG spec §5.2 signature 89 50 4E 47 0D 0A 1A 0A, then IHDR, IDAT, IEND). */
+/**
+ * A 1×1 transparent PNG (PNG spec §5.2 signature 89 50 4E 47 0D 0A 1A 0A, then IHDR, pHYs,
+ * IDAT, IEND), written by libpng through sharp: decodable, since uploaded photos are now
+ * re-encoded (the previous hand-made bytes had a bad IDAT that libpng refuses).
+ */
 export const tinyPng = () =>
   Buffer.from(
-    "89504e470d0a1a0a0000000d49484452000000010000000108060000001f15c4890000000d4944415478da63f8cfc0f01f0005000201a0d0c4e90000000049454e44ae426082",
+    "89504e470d0a1a0a0000000d49484452000000010000000108060000001f15c4890000000970485973000003e8000003e801b57b526b0000000d4944415408d763606060600000000500015ef32a3a0000000049454e44ae426082",
     "hex",
   );
 
