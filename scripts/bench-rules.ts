@@ -25,6 +25,7 @@ const opts = {
   orders: option("orders", 400),
   days: option("days", 60),
   seed: option("seed", 42),
+  trucks: option("trucks", 150),
 };
 
 let t = performance.now();
@@ -43,6 +44,10 @@ console.log(
   `  ${snapshot.workers.length} workers, ${snapshot.workOrders.length} orders, ${snapshot.assignments.length} assignments, ` +
     `${count((w) => w.timeRecords.length)} time records, ${count((w) => w.credentials.length)} credentials, ` +
     `${count((w) => w.unavailable.length)} unavailability entries`,
+);
+console.log(
+  `  ${snapshot.equipment?.length ?? 0} pieces of equipment, ${snapshot.equipmentAssignments?.length ?? 0} equipment assignments, ` +
+    `${count((w) => w.gear?.length ?? 0)} gloves and sleeves, ${snapshot.workOrders.filter((o) => o.lift).length} planned lifts`,
 );
 console.log(
   `  snapshot JSON ${Buffer.byteLength(JSON.stringify(snapshot))} bytes; crew-check input JSON ${Buffer.byteLength(inputJson)} bytes`,

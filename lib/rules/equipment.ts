@@ -8,7 +8,7 @@
 // licence any of its equipment requires, class A covering class B.
 
 import { dateWords, energizedAtLeast, ENERGIZED_WORK_KV, finding, type RuleCheck } from "./common";
-import { addMonths, lastDayOf } from "./gear";
+import { addMonths } from "./gear";
 import type { SnapshotIndex } from "./snapshot-index";
 import type { Equipment, EquipmentKind, Finding, Licence, WorkOrder, WorkType } from "./types";
 
@@ -80,7 +80,7 @@ export const equipmentRule: RuleCheck = (orders, ix) => {
       );
     }
     if (!energizedAtLeast(order, ENERGIZED_WORK_KV)) continue;
-    const lastDay = lastDayOf(order, ix.timezone);
+    const lastDay = ix.lastDay(order);
     for (const e of pieces) {
       if (!isAerialDevice(e)) continue;
       const problem = aerialDeviceProblem(e, lastDay);

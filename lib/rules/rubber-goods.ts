@@ -19,7 +19,7 @@
 // person still needs gloves of some class in test.
 
 import { dateWords, energizedAtLeast, ENERGIZED_WORK_KV, finding, who, type RuleCheck } from "./common";
-import { addMonths, classFor, gloveVerdict, inTestThrough, lastDayOf, MAX_USE_VOLTS, RETEST_MONTHS, RUBBER_GOODS_SOURCE, sleeveProblem, volts } from "./gear";
+import { addMonths, classFor, gloveVerdict, inTestThrough, MAX_USE_VOLTS, RETEST_MONTHS, RUBBER_GOODS_SOURCE, sleeveProblem, volts } from "./gear";
 import type { Finding, Worker } from "./types";
 
 /** Positions whose holders work within reach of energized parts and need rated gloves. */
@@ -40,7 +40,7 @@ export const rubberGoods: RuleCheck = (orders, ix) => {
     }
     if (people.size === 0) continue;
     const kv = order.voltageKv;
-    const lastDay = lastDayOf(order, ix.timezone);
+    const lastDay = ix.lastDay(order);
     const span = lastDay === order.startDate ? `on ${dateWords(lastDay)}` : `through the order's last day, ${dateWords(lastDay)}`;
 
     if (kv === null) {
