@@ -101,8 +101,8 @@ export function LiftFiguresView({
           {figures.checks.map((c) => (
             <tr key={c.part} className="border-t border-rule" data-testid={`lift-${c.part.replace(" ", "-")}`}>
               <td className="py-1 pr-2">{PART_LABEL[c.part]}</td>
-              <td className="py-1 pr-2 text-right tabular-nums">{lb(c.forceLb)}</td>
-              <td className="py-1 pr-2 text-right tabular-nums">{c.limitLb === null ? "—" : `${c.limitLb.toLocaleString("en-US")} lb`}</td>
+              <td className="whitespace-nowrap py-1 pr-2 text-right tabular-nums">{lb(c.forceLb)}</td>
+              <td className="whitespace-nowrap py-1 pr-2 text-right tabular-nums">{c.limitLb === null ? "—" : `${c.limitLb.toLocaleString("en-US")} lb`}</td>
               <td className="py-1">
                 {c.limitLb === null ? <Badge tone="muted">No WLL given</Badge> : c.over ? <Badge tone="block">Over the WLL</Badge> : <Badge tone="clear">Within</Badge>}
               </td>

@@ -5,6 +5,7 @@ import { db } from "@/lib/db";
 import { ApiError } from "@/lib/api/http";
 import { loadBriefing, modeFor, type Mode } from "@/lib/data/briefings";
 import { BriefingScreen } from "./screen";
+import { BriefingFigures } from "./figures";
 
 export const metadata = { title: "Job briefing" };
 export const dynamic = "force-dynamic";
@@ -26,5 +27,11 @@ export default async function BriefingPage({ params }: { params: Promise<{ id: s
     throw err;
   }
   const backHref = user.role === "lineworker" ? "/me" : `/board?${new URLSearchParams({ yard: view.order.yardCode, date: view.order.workDate })}`;
-  return <BriefingScreen initial={{ ...view, mode, me: user.workerId ?? null }} backHref={backHref} />;
+  return (
+    <BriefingScreen
+      initial={{ ...view, mode, me: user.workerId ?? null }}
+      backHref={backHref}
+      figures={<BriefingFigures conn={db()} organisationId={user.organisationId} orderId={Number(raw)} isLead={mode === "lead"} />}
+    />
+  );
 }

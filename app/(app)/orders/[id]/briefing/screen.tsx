@@ -22,7 +22,7 @@ const BOARD_STATE: Record<string, { tone: Tone; word: string }> = {
   on_hold: { tone: "block", word: "Board: on hold" },
 };
 
-export function BriefingScreen({ initial, backHref }: { initial: ScreenView; backHref: string }) {
+export function BriefingScreen({ initial, backHref, figures }: { initial: ScreenView; backHref: string; figures?: React.ReactNode }) {
   const [view, setView] = useState<ScreenView>(initial);
   const [notice, setNotice] = useState<{ tone: "clear" | "block" | "warn"; text: string } | null>(null);
   const [recording, setRecording] = useState<number | null>(null);
@@ -154,6 +154,7 @@ export function BriefingScreen({ initial, backHref }: { initial: ScreenView; bac
         conditions change.
       </p>
       <SafetyNote className="mb-4" />
+      {figures}
 
       {notice && (
         <div className="mb-3 print:hidden">
