@@ -6,7 +6,7 @@ import { RateLimiterMemory, RateLimiterMySQL, type RateLimiterAbstract } from "r
 // counts the same failures. Three counters, none of which lets a stranger lock anyone out:
 //
 // - per account AND client address: 5 failures free, then each further failure makes that
-//   pair wait 1, 2, 4 … s (at most 15 min) before its next try. Only the address that guessed
+//   pair wait 30 s, 1 min, 2 min … (at most 15 min) before its next try. Only the address that guessed
 //   waits; the account's owner elsewhere signs in as usual.
 // - per client address: 100 failures an hour free (a shared office NAT), then the same
 //   growing wait for that address, whatever account it tries (one address sweeping accounts).
@@ -70,10 +70,10 @@ function get(db: Knex | null): Limiters {
   return limiters;
 }
 
-/** The wait after `failures` failures with `free` of them free: 0, then 1, 2, 4 … s, capped. */
+/** The wait after `failures` failures with `free` of them free: 0, then 30, 60, 120 … s, capped. */
 export function waitSeconds(failures: number, free: number): number {
   if (failures < free) return 0;
-  return Math.min(2 ** (failures - free), SIGN_IN_LIMIT.maxWaitSeconds);
+  return Math.min(30 * 2 ** (failures - free), SIGN_IN_LIMIT.maxWaitSeconds);
 }
 
 /** The hold for an account's failures over all addresses: 0, then 250, 500 … ms, capped. */
@@ -99,6 +99,8 @@ export async function signInGate(db: Knex | null, email: string, ip: string): Pr
 export async function recordSignIn(db: Knex | null, email: string, ip: string, success: boolean): Promise<void> {
   const l = get(db);
   const key = pairKey(email, ip);
+  // The history of attempts (who, from where, when) for admins; the limits live in sign_in_limits.
+  if (db) await db("sign_in_attempts").insert({ email: email.slice(0, 254), ip: ip.slice(0, 64), success }).catch(() => {});
   if (success) {
     await Promise.all([l.pairFails.delete(key), l.pairWait.delete(key)]);
     return;
