@@ -960,6 +960,116 @@ export const ROUTES: RouteEntry[] = [
     audit: "next-auth's own route; sign-ins are recorded in sign_in_attempts (platform.test.ts)",
     sample: () => ({ path: "/api/auth/callback/credentials", raw: { type: "application/x-www-form-urlencoded", text: "email=nobody%40cedarprairie.example&password=x" } }),
   },
+  // --- rubber goods and lift plans (issue 16) --------------------------------------------------
+  {
+    method: "GET",
+    route: "/api/gear",
+    roles: ["hr", "admin", "dispatcher", "supervisor", "lineworker"],
+    status: 200,
+    fuzz: "query",
+    sample: () => ({ path: "/api/gear?view=due" }),
+  },
+  {
+    method: "POST",
+    route: "/api/gear",
+    roles: HRA,
+    status: 201,
+    audit: true,
+    fuzz: "json",
+    sample: (fx) => ({ path: "/api/gear", body: { workerId: fx.worker.id, kind: "rubber_gloves", class: "2", serial: `RM-G-${fx.uniq()}`, testedOn: fx.pastDay() } }),
+  },
+  {
+    method: "GET",
+    route: "/api/gear/[id]",
+    roles: ["hr", "admin", "dispatcher", "supervisor", "lineworker"],
+    status: 200,
+    sample: async (fx, caller) => {
+      const workerId = caller === "lineworker" ? fx.marcus.workerId : fx.worker.id;
+      const [id] = await fx.db("rubber_goods").insert({ organisation_id: fx.orgId, worker_id: workerId, kind: "rubber_gloves", class: "2", serial: `RM-G-${fx.uniq()}`, tested_on: fx.pastDay() });
+      return { path: `/api/gear/${id}` };
+    },
+  },
+  {
+    method: "PATCH",
+    route: "/api/gear/[id]",
+    roles: HRA,
+    status: 200,
+    audit: true,
+    fuzz: "json",
+    sample: async (fx) => {
+      const [id] = await fx.db("rubber_goods").insert({ organisation_id: fx.orgId, worker_id: fx.worker.id, kind: "rubber_gloves", class: "2", serial: `RM-G-${fx.uniq()}`, tested_on: fx.pastDay() });
+      return { path: `/api/gear/${id}`, body: { version: 1, testedOn: fx.pastDay() } };
+    },
+  },
+  {
+    method: "GET",
+    route: "/api/gear/export",
+    roles: ["hr", "admin", "dispatcher", "supervisor"],
+    status: 200,
+    fuzz: "query",
+    sample: () => ({ path: "/api/gear/export?view=all" }),
+  },
+  {
+    method: "POST",
+    route: "/api/gear/import",
+    roles: HRA,
+    status: 201,
+    audit: true,
+    fuzz: "json",
+    sample: (fx) => ({ path: "/api/gear/import", body: { csv: `serial,employee_no,kind,class,tested_on\r\nRM-G-${fx.uniq()},${fx.worker.employeeNo},rubber_gloves,2,${fx.pastDay()}\r\n`, dryRun: false } }),
+  },
+  {
+    method: "POST",
+    route: "/api/gear/reminders",
+    roles: HRA,
+    status: 200,
+    audit: true,
+    sample: () => ({ path: "/api/gear/reminders" }),
+  },
+  {
+    method: "GET",
+    route: "/api/orders/[id]/lift",
+    roles: DA,
+    status: 200,
+    sample: (fx) => ({ path: `/api/orders/${fx.orderId}/lift` }),
+  },
+  {
+    method: "PUT",
+    route: "/api/orders/[id]/lift",
+    roles: DA,
+    status: 200,
+    audit: true,
+    fuzz: "json",
+    sample: async (fx) => ({
+      path: `/api/orders/${(await fx.order()).id}/lift`,
+      body: { loadLb: 640, partsOfLine: 3, blockWllLb: 2000, lineWllLb: 450, slingWllLb: 1000, slingLegs: 2, slingAngleDeg: 60 },
+    }),
+  },
+  {
+    method: "DELETE",
+    route: "/api/orders/[id]/lift",
+    roles: DA,
+    status: 200,
+    audit: true,
+    sample: async (fx) => {
+      const { id } = await fx.order();
+      await fx.db("lift_plans").insert({ work_order_id: id, load_lb: 400, parts_of_line: 3, sheaves: 3 });
+      return { path: `/api/orders/${id}/lift` };
+    },
+  },
+  {
+    method: "POST",
+    route: "/api/briefings/[orderId]/lift",
+    roles: ["lineworker"],
+    status: 200,
+    audit: true,
+    fuzz: "json",
+    sample: async (fx) => {
+      const s = await fx.briefingOrder("none");
+      await fx.db("lift_plans").insert({ work_order_id: s.orderId, load_lb: 400, parts_of_line: 3, sheaves: 3 });
+      return { path: `/api/briefings/${s.orderId}/lift`, body: { version: 1, siteWeightLb: 415 } };
+    },
+  },
 ];
 
 export const routeKey = (method: string, route: string) => `${method} ${route}`;

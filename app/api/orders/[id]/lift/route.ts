@@ -2,6 +2,7 @@ import { db } from "@/lib/db";
 import { handler, json, readJson } from "@/lib/api/http";
 import { idParam } from "@/lib/api/ids";
 import { requireRole } from "@/lib/auth/session";
+import { yardScope } from "@/lib/auth/yard-scope";
 import { deleteLiftPlan, getLiftPlan, putLiftPlan, riggingChoices } from "@/lib/gear/data";
 import { liftFiguresFor } from "@/lib/gear/figures";
 import { liftPlanSchema } from "@/lib/gear/lift";
@@ -16,6 +17,7 @@ type P = { id: string };
 export const GET = handler<P>(async (_req, ctx) => {
   const user = await requireRole("dispatcher", "supervisor", "admin");
   const orderId = idParam((await ctx.params).id, "work order");
+  await yardScope(user, "read", { orderId });
   const plan = await getLiftPlan(db(), user.organisationId, orderId);
   return json({ plan, figures: plan ? liftFiguresFor(plan) : null, rigging: await riggingChoices(db(), orderId) });
 });
@@ -24,6 +26,7 @@ export const PUT = handler<P>(async (req, ctx) => {
   const user = await requireRole("dispatcher", "supervisor", "admin");
   const orderId = idParam((await ctx.params).id, "work order");
   const body = await readJson(req, liftPlanSchema);
+  await yardScope(user, "edit", { orderId });
   const plan = await putLiftPlan(db(), user, orderId, body);
   return json({ plan, figures: liftFiguresFor(plan) });
 });
@@ -31,6 +34,7 @@ export const PUT = handler<P>(async (req, ctx) => {
 export const DELETE = handler<P>(async (_req, ctx) => {
   const user = await requireRole("dispatcher", "supervisor", "admin");
   const orderId = idParam((await ctx.params).id, "work order");
+  await yardScope(user, "edit", { orderId });
   await deleteLiftPlan(db(), user, orderId);
   return json({ ok: true });
 });
