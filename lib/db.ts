@@ -73,7 +73,7 @@ export function statementTimeoutMs(env: Record<string, string | undefined> = pro
 
 const HOST_PAUSE_MS = 5_000; // a node that failed is skipped this long
 const RETURN_HOME_MS = 15_000; // a connection to a fallback node is replaced after this long
-const CONNECT_TIMEOUT_MS = Number(process.env.DB_CONNECT_TIMEOUT_MS ?? 1500);
+const CONNECT_TIMEOUT_MS = Number(process.env.DB_CONNECT_TIMEOUT_MS ?? 2500); // per node tried
 
 type RawConn = {
   connect: (cb: (err: unknown) => void) => void;
@@ -149,7 +149,9 @@ function failoverClientClass(): ClientCtor {
         const guard = setTimeout(() => conn.destroy(), CONNECT_TIMEOUT_MS * 2);
         try {
           // Galera: a node outside the primary component answers but refuses work.
-          const ready = (await sqlOn(conn, "SHOW STATUS LIKE 'wsrep_ready'")) as { Value?: string }[];
+          // A plain MariaDB (wsrep_on = OFF) also reports wsrep_ready = OFF: ask only a Galera node.
+          const wsrep = (await sqlOn(conn, "SELECT @@global.wsrep_on AS w")) as { w?: number | string }[];
+          const ready = Number(wsrep[0]?.w ?? 0) ? ((await sqlOn(conn, "SHOW STATUS LIKE 'wsrep_ready'")) as { Value?: string }[]) : [];
           if (ready.length && ready[0].Value !== "ON") throw Object.assign(new Error(`Database node ${h.host}:${h.port} is not ready (wsrep_ready=${ready[0].Value}).`), { code: "WSREP_NOT_READY" });
           await this.checkVersion?.(conn).catch(() => undefined);
           await sqlOn(conn, `SET SESSION max_statement_time = ${(stmtMs / 1000).toFixed(3)}, innodb_lock_wait_timeout = ${Math.max(1, Math.ceil(stmtMs / 1000))}`);
