@@ -83,7 +83,7 @@ export function twoWorkerBasis(order: WorkOrder, equipment: readonly Equipment[]
     whys.push(`the work is energized ${kvWords(order)}`);
   } else if (nearAbove(order, HIGH_VOLTAGE_KV)) {
     paragraphs.push("(B)");
-    whys.push(`exposed parts at ${kvNumber(order.nearEnergizedKv!)} kV are within reach of the de-energized work`);
+    whys.push(`exposed parts at ${kvNumber(order.nearEnergizedKv!)} kV are within reach of the ${order.energized ? "work" : "de-energized work"}`);
   }
   const machines = onOrNearAbove(order, HIGH_VOLTAGE_KV) ? mechanicalEquipment(order, equipment) : [];
   if (machines.length > 0) {
@@ -95,8 +95,10 @@ export function twoWorkerBasis(order: WorkOrder, equipment: readonly Equipment[]
   return { paragraphs: paragraphs.map((p) => `29 CFR 1910.269(l)(2)(i)${p}`), why: whys.join(" and ") };
 }
 
+/** The same test as twoWorkerBasis(order) !== null, without building its words. */
 export function twoWorkerRuleApplies(order: WorkOrder, equipment: readonly Equipment[] = []): boolean {
-  return twoWorkerBasis(order, equipment) !== null;
+  if (!onOrNearAbove(order, HIGH_VOLTAGE_KV)) return false;
+  return order.workType !== "patrol" || mechanicalEquipment(order, equipment).length > 0;
 }
 
 /**
@@ -143,10 +145,11 @@ export const crewMin: RuleCheck = (orders, ix) => {
       });
     }
 
-    const basis = twoWorkerBasis(order, ix.equipment.of(order.id));
+    const equipment = ix.equipment.of(order.id);
+    const qualified = twoWorkerRuleApplies(order, equipment) ? qualifiedCount(people, ix, order) : 2;
+    const basis = qualified < 2 ? twoWorkerBasis(order, equipment) : null;
     if (basis) {
-      const qualified = qualifiedCount(people, ix, order);
-      if (qualified < 2) {
+      {
         const what = qualified === 1 ? "a second qualified worker" : "2 qualified workers";
         const base =
           `At least 2 qualified workers must be on site because ${basis.why}; ` +

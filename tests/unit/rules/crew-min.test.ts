@@ -1,5 +1,5 @@
 import { describe, expect, it } from "vitest";
-import { crewMin } from "@/lib/rules/crew-min";
+import { crewMin, twoWorkerBasis, twoWorkerRuleApplies } from "@/lib/rules/crew-min";
 import { type A, brief, day, order, run, worker, type OrderOpts } from "./fixtures";
 
 // Sources: 29 CFR 1910.269(l)(2)(i)(A)-(E) and (l)(2)(ii)(A)-(C), text read from osha.gov's
@@ -172,5 +172,23 @@ describe("CREW_MIN wording of the voltage (Corrections 8)", () => {
   it("a single-phase tap off a 12.47Y/7.2 kV feeder reads as its system", () => {
     const found = run(crewMin, day(people, [order("o", { voltageKv: 7.2, phases: 1 })], [["o", "j1", "climber"]]));
     expect(found[0].message).toMatch(/because the work is energized at 12\.47Y\/7\.2 kV;/);
+  });
+});
+
+describe("twoWorkerRuleApplies is twoWorkerBasis without the words", () => {
+  it("agrees on every combination of work type, energized, voltage, nearby voltage and equipment", () => {
+    const kinds = [[], [{ id: "d", name: "D", kind: "digger_derrick", insulated: false, dielectricTestedOn: null, licence: null }], [{ id: "b", name: "B", kind: "bucket_truck", insulated: true, dielectricTestedOn: null, licence: null }]] as const;
+    let applied = 0;
+    for (const workType of ["pole_climb", "bucket", "digger_derrick", "patrol", "storm", "other"] as const)
+      for (const energized of [true, false])
+        for (const voltageKv of [null, 0.24, 0.6, 12.47])
+          for (const nearEnergizedKv of [null, 0.6, 7.2])
+            for (const eq of kinds) {
+              const o = order("o", { workType, energized, voltageKv, nearEnergizedKv });
+              const applies = twoWorkerRuleApplies(o, eq);
+              expect(applies, JSON.stringify({ workType, energized, voltageKv, nearEnergizedKv, eq: eq.length })).toBe(twoWorkerBasis(o, eq) !== null);
+              if (applies) applied++;
+            }
+    expect(applied).toBeGreaterThan(50);
   });
 });
