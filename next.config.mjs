@@ -16,9 +16,11 @@ const csp = [
   "object-src 'none'",
 ].join("; ");
 
-// API responses (JSON, CSV, PDF, evidence files) are never a page: nothing runs, nothing loads,
-// and a file opened directly is sandboxed (no script, no same-origin access).
+// File downloads are never a page: nothing runs, nothing loads, and a file opened directly is
+// sandboxed (no script, no same-origin access).
 const downloadCsp = "default-src 'none'; sandbox; frame-ancestors 'none'";
+// The download routes, as one path-to-regexp pattern (no leading slash).
+const DOWNLOADS = "(?:api/files/[^/]+|api/briefings/[^/]+/photo/|api/briefings/[^/]+/pdf|api/credentials/export|api/gear/export)";
 
 /** @type {import('next').NextConfig} */
 const nextConfig = {
@@ -28,14 +30,13 @@ const nextConfig = {
   reactStrictMode: true,
   serverExternalPackages: ["knex", "mysql2", "twilio", "nodemailer", "highs", "bcryptjs"],
   async headers() {
-    // One Content-Security-Policy per response, never two that replace each other: pages and
-    // next-auth's own routes get the app's policy; every other API route (JSON and file
-    // downloads) gets the download policy, which is also what the file routes set themselves
+    // One Content-Security-Policy per response, never two that replace each other: file
+    // downloads (evidence, pole-check photos, the briefing PDF, CSV exports) get the sandboxed
+    // download policy, the same their routes set themselves; everything else the app's policy
     // (issue 15, finding 14: the global policy used to replace a download's sandbox).
     return [
-      { source: "/:path((?!api/).*)", headers: [{ key: "Content-Security-Policy", value: csp }] },
-      { source: "/api/auth/:path*", headers: [{ key: "Content-Security-Policy", value: csp }] },
-      { source: "/api/:path((?!auth/).*)", headers: [{ key: "Content-Security-Policy", value: downloadCsp }] },
+      { source: `/:path((?!${DOWNLOADS}).*)`, headers: [{ key: "Content-Security-Policy", value: csp }] },
+      { source: `/:path(${DOWNLOADS}.*)`, headers: [{ key: "Content-Security-Policy", value: downloadCsp }] },
       {
         source: "/:path*",
         headers: [
