@@ -371,11 +371,13 @@ export async function fill(problem: FillProblem, settingsIn: Partial<FillSetting
       if (!off.has("RESCUE")) {
         const positionsOf = ix.crew(o).positionsOf;
         const hasClimber = c.open.has("climber") || E.some((w) => positionsOf.get(w.id)?.has("climber"));
-        // Who is aloft (Corrections 3): climbers; on bucket work also the aerial seats, and the
-        // lead when the order has no aerial seat at all (filled or open).
+        // Who is aloft (Corrections 3, lib/rules/common.ts aloftIds): climbers; on bucket work
+        // also the aerial seats, and the lead when the order has neither an aerial nor a climber
+        // seat (filled or open).
+        const bucketSeat = (p: Position) => c.open.has(p) || E.some((w) => positionsOf.get(w.id)?.has(p));
         const aloftSeats: Position[] =
           order.workType === "bucket"
-            ? c.open.has("aerial") || E.some((w) => positionsOf.get(w.id)?.has("aerial"))
+            ? bucketSeat("aerial") || bucketSeat("climber")
               ? ["climber", "aerial"]
               : ["climber", "aerial", "lead"]
             : ["climber"];

@@ -90,15 +90,16 @@ export function onOrNearAbove(order: WorkOrder, kv: number): boolean {
 
 /**
  * Who is aloft on an order (Corrections 3). On bucket work: the people in `aerial` positions,
- * or the lead when no `aerial` position is filled; a `climber` on bucket work was the person in
- * the bucket before `aerial` existed, so climbers count as aloft too. On every other order:
- * the climbers and anyone in an `aerial` position.
+ * or the lead when no `aerial` position is filled. Before `aerial` existed, a `climber` on bucket
+ * work was the person in the bucket, and an earlier input keeps that meaning: such a climber is
+ * aloft and fills the bucket seat (so the lead is not taken to be aloft beside them). On every
+ * other order: the climbers and anyone in an `aerial` position.
  */
 export function aloftIds(order: WorkOrder, holders: ReadonlyMap<Position, readonly Worker[]>): Set<string> {
   const ids = new Set<string>();
   for (const w of holders.get("aerial") ?? []) ids.add(w.id);
   for (const w of holders.get("climber") ?? []) ids.add(w.id);
-  if (order.workType === "bucket" && !holders.has("aerial")) for (const w of holders.get("lead") ?? []) ids.add(w.id);
+  if (order.workType === "bucket" && ids.size === 0) for (const w of holders.get("lead") ?? []) ids.add(w.id);
   return ids;
 }
 

@@ -181,6 +181,7 @@ describe("Corrections 3: the person in the bucket, who is aloft, and who can res
     { name: "(a)(2)(i)(B): bucket, no aerial filled: the lead is aloft and cannot be the rescuer", order: { workType: "bucket" }, crew: [["o", "ar", "lead"], ["o", "g", "ground"]], expected: ["o/-/block"] },
     { name: "(a)(2)(i)(B): bucket, two aloft both trained, nobody trained below", order: { workType: "bucket" }, crew: [["o", "ar", "aerial"], ["o", "ar2", "aerial"], ["o", "g", "ground"]], expected: ["o/-/block"] },
     { name: "(a)(2)(i)(B): bucket, a 'climber' on bucket work was the person in the bucket and is aloft", order: { workType: "bucket" }, crew: [["o", "ar", "climber"], ["o", "j", "aerial"], ["o", "g", "ground"]], expected: ["o/-/block"] },
+    { name: "(a)(2)(i)(B): bucket, an earlier input (lead, climber in the bucket, ground): the lead on the ground may rescue", order: { workType: "bucket" }, crew: [["o", "ar", "lead"], ["o", "j", "climber"], ["o", "g", "ground"]], expected: [] },
     { name: "(a)(2)(i)(B): pole climb, the only pole-top holder climbs", crew: [["o", "ar", "climber"], ["o", "j", "lead"], ["o", "g", "observer"]], expected: ["o/-/block"] },
     { name: "(a)(2)(i)(B): pole climb, two climbers both trained, nobody else: someone other than every climber", crew: [["o", "ar", "climber"], ["o", "ar2", "climber"], ["o", "g", "observer"]], expected: ["o/-/block"] },
     { name: "(a)(2)(i)(B): pole climb, trained observer on the ground", crew: [["o", "j", "climber"], ["o", "gr", "observer"]], expected: [] },
