@@ -17,6 +17,10 @@ export interface YardRefs {
   seriesId?: number | null;
   timeRecordId?: number | null;
   inboundMessageId?: number | null;
+  /** A truck or other unit of the equipment register (its home yard). */
+  equipmentId?: number | null;
+  /** A booking of equipment on an order (the order's yard). */
+  equipmentAssignmentId?: number | null;
 }
 
 async function yardsOf(org: number, r: YardRefs): Promise<number[]> {
@@ -36,6 +40,9 @@ async function yardsOf(org: number, r: YardRefs): Promise<number[]> {
     await one(q("time_records as t").join("workers as w", "w.id", "t.worker_id").where({ "t.id": r.timeRecordId, "w.organisation_id": org }).first("w.yard_id"));
   if (r.inboundMessageId)
     await one(q("inbound_messages as m").join("workers as w", "w.id", "m.worker_id").where({ "m.id": r.inboundMessageId, "w.organisation_id": org }).first("w.yard_id"));
+  if (r.equipmentId) await one(q("equipment").where({ id: r.equipmentId, organisation_id: org }).first("yard_id"));
+  if (r.equipmentAssignmentId)
+    await one(q("equipment_assignments as e").join("work_orders as o", "o.id", "e.work_order_id").where({ "e.id": r.equipmentAssignmentId, "o.organisation_id": org }).first("o.yard_id"));
   return out.filter((v): v is number => v !== null && v !== undefined).map(Number);
 }
 

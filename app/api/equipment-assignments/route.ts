@@ -1,5 +1,6 @@
 import { db } from "@/lib/db";
 import { handler, json, readJson } from "@/lib/api/http";
+import { yardScope } from "@/lib/auth/yard-scope";
 import { requireRole } from "@/lib/auth/session";
 import { CAN_DISPATCH } from "@/lib/auth/roles";
 import { bookEquipment } from "@/lib/equipment/data";
@@ -11,6 +12,7 @@ import { findingsAfterEquipment } from "@/lib/equipment/board";
 export const POST = handler(async (req) => {
   const user = await requireRole(...CAN_DISPATCH);
   const input = await readJson(req, equipmentAssignSchema);
+  await yardScope(user, "edit", { orderId: input.workOrderId });
   const result = await bookEquipment(db(), user, input);
   const recheck = await findingsAfterEquipment(db(), user.organisationId, result.orderIds, result.equipmentIds);
   return json({ ...result, recheck }, 201);

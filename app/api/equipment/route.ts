@@ -1,5 +1,6 @@
 import { db } from "@/lib/db";
 import { handler, json, readJson, readQuery } from "@/lib/api/http";
+import { yardScope } from "@/lib/auth/yard-scope";
 import { requireRole } from "@/lib/auth/session";
 import { ALL_SIGNED_IN, CAN_EDIT_EQUIPMENT } from "@/lib/equipment/roles";
 import { createEquipment, listEquipment } from "@/lib/equipment/data";
@@ -20,5 +21,6 @@ export const GET = handler(async (req) => {
 export const POST = handler(async (req) => {
   const user = await requireRole(...CAN_EDIT_EQUIPMENT);
   const input = await readJson(req, equipmentCreateSchema);
+  await yardScope(user, "edit", { yardId: input.yardId });
   return json({ equipment: await createEquipment(db(), user, input) }, 201);
 });

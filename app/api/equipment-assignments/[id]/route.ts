@@ -1,6 +1,7 @@
 import { db } from "@/lib/db";
 import { handler, json, readQuery } from "@/lib/api/http";
 import { idParam } from "@/lib/api/ids";
+import { yardScope } from "@/lib/auth/yard-scope";
 import { requireRole } from "@/lib/auth/session";
 import { CAN_DISPATCH } from "@/lib/auth/roles";
 import { unbookEquipment } from "@/lib/equipment/data";
@@ -13,6 +14,7 @@ type P = { id: string };
 export const DELETE = handler<P>(async (req, ctx) => {
   const user = await requireRole(...CAN_DISPATCH);
   const id = idParam((await ctx.params).id, "equipment booking");
+  await yardScope(user, "edit", { equipmentAssignmentId: id });
   const input = readQuery(req, equipmentUnassignSchema);
   const result = await unbookEquipment(db(), user, id, input);
   const recheck = await findingsAfterEquipment(db(), user.organisationId, result.orderIds, result.equipmentIds);
