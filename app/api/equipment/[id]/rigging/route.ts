@@ -1,6 +1,7 @@
 import { db } from "@/lib/db";
 import { handler, json, readJson } from "@/lib/api/http";
 import { idParam } from "@/lib/api/ids";
+import { yardScope } from "@/lib/auth/yard-scope";
 import { requireRole } from "@/lib/auth/session";
 import { CAN_EDIT_EQUIPMENT } from "@/lib/equipment/roles";
 import { addRigging } from "@/lib/equipment/data";
@@ -13,5 +14,6 @@ export const POST = handler<P>(async (req, ctx) => {
   const user = await requireRole(...CAN_EDIT_EQUIPMENT);
   const id = idParam((await ctx.params).id, "equipment");
   const input = await readJson(req, riggingCreateSchema);
+  await yardScope(user, "edit", { equipmentId: id });
   return json({ rigging: await addRigging(db(), user, id, input) }, 201);
 });
