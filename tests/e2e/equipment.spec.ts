@@ -59,3 +59,33 @@ test("an out-of-service truck cannot be picked up onto an order", async ({ page 
   await expect(page.getByTestId(`eqadd-${ORDER}`)).not.toContainText("N-330");
   await expect(page.getByTestId("pool-truck-N-330")).toContainText("Out of service");
 });
+
+test("the same drop done with the keyboard (Space, arrow keys, Space), then back to the pool", async ({ page }) => {
+  await signIn(page, "dispatcher");
+  const target = page.getByTestId(`eqadd-${ORDER}`);
+  await target.scrollIntoViewIfNeeded();
+  const source = page.getByTestId("pool-truck-N-502"); // North's pole trailer: any order may take more equipment
+  await source.focus();
+  await page.keyboard.press("Space");
+  const overlay = page.locator('[data-testid="drag-overlay"]');
+  await expect(overlay).toBeVisible();
+  await expect(overlay).toContainText("N-502");
+  for (let i = 0; i < 40; i++) {
+    const t = (await target.boundingBox())!;
+    const o = (await overlay.boundingBox())!;
+    const dx = t.x + t.width / 2 - (o.x + o.width / 2);
+    const dy = t.y + t.height / 2 - (o.y + o.height / 2);
+    if (Math.abs(dx) < t.width / 2 && Math.abs(dy) < t.height / 2) break;
+    await page.keyboard.press(Math.abs(dx) > Math.abs(dy) ? (dx > 0 ? "ArrowRight" : "ArrowLeft") : dy > 0 ? "ArrowDown" : "ArrowUp");
+  }
+  const placed = page.waitForResponse((r) => r.url().endsWith("/api/equipment-assignments") && r.request().method() === "POST");
+  await page.keyboard.press("Space");
+  expect((await placed).status()).toBe(201);
+  await expect(target).toContainText("N-502");
+
+  const back = await drag(page, `[data-testid="eqadd-${ORDER}"] [data-testid="booked-N-502"]`, '[data-testid="equipment-pool-drop"]');
+  const removed = page.waitForResponse((r) => r.url().includes("/api/equipment-assignments/") && r.request().method() === "DELETE");
+  await back.drop();
+  expect((await removed).status()).toBe(200);
+  await expect(target).not.toContainText("N-502");
+});
