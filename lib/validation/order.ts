@@ -152,6 +152,8 @@ function checkSite(v: Partial<OrderFieldsOut>, ctx: z.RefinementCtx) {
     ctx.addIssue({ code: "custom", path: ["systemKv"], message: "System voltage is only for a single-phase tap; a three-phase order's voltage is the system's" });
   const shifts = v.shifts ?? [];
   if (!shifts.length) return;
+  if (v.recurrence)
+    ctx.addIssue({ code: "custom", path: ["shifts"], message: "A repeating order has no shifts; give a multi-day order its shifts as a single order" });
   const ok = (t: string | undefined) => !!t && WALL_RE.test(t);
   const orderOk = ok(v.start) && ok(v.end);
   const rows = shifts.map((sh, i) => ({ i, start: ok(sh.start) ? wallKey(sh.start) : null, end: ok(sh.end) ? wallKey(sh.end) : null }));
