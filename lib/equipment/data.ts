@@ -16,6 +16,7 @@ import {
   type Equipment,
   type EquipmentAssignInput,
   type EquipmentCreate,
+  type EquipmentMoveInput,
   type EquipmentPatch,
   type RiggingCreate,
   type RiggingItem,
@@ -350,6 +351,71 @@ export async function unbookEquipment(db: Knex, actor: Actor, assignmentId: numb
       });
       await boardEvent(trx, { organisationId: actor.organisationId, yardId: order.yard_id, day: order.work_date, kind: "equipment", payload: { orderId: order.id } });
       return { assignmentId, orderIds: [order.id], equipmentIds: [row.equipment_id], current: await bookingState(trx, [order.id]) };
+    }, TX),
+  );
+}
+
+/**
+ * Moves a booked truck to another order in one transaction: both orders locked in id order,
+ * then the truck; the overlap check leaves out the booking being moved.
+ */
+export async function moveEquipment(db: Knex, actor: Actor, assignmentId: number, input: EquipmentMoveInput): Promise<BookingResult> {
+  return withRetry(() =>
+    db.transaction(async (trx) => {
+      const row = await trx("equipment_assignments").where({ id: assignmentId }).first();
+      if (!row) throw new ApiError(404, "No such equipment booking (it may have been removed).");
+      const ids = [...new Set([Number(row.work_order_id), input.workOrderId])].sort((a, b) => a - b);
+      const locked = await trx("work_orders")
+        .whereIn("id", ids)
+        .orderBy("id")
+        .forUpdate()
+        .select("id", "organisation_id", "number", "status", "version", "start_at", "end_at", "yard_id", "work_date");
+      const from = locked.find((o) => o.id === Number(row.work_order_id));
+      const to = locked.find((o) => o.id === input.workOrderId);
+      if (!from || from.organisation_id !== actor.organisationId) throw new ApiError(404, "No such equipment booking.");
+      if (!to || to.organisation_id !== actor.organisationId) {
+        throw new ApiError(422, "Invalid workOrderId: no such work order.", { issues: [{ field: "workOrderId", message: "No such work order" }] });
+      }
+      for (const o of [from, to]) if (CLOSED.has(o.status)) throw new ApiError(409, `${o.number} is ${o.status}; its equipment can no longer change.`);
+      const e = await trx("equipment").where({ id: row.equipment_id }).forUpdate().first();
+      const mine = await trx("equipment_assignments").where({ id: assignmentId }).forUpdate().first();
+      if (!mine || mine.version !== input.version) {
+        throw new ApiError(409, "This booking was changed by someone else; the card has been refreshed.", { current: await bookingState(trx, ids) });
+      }
+      if (from.id === to.id) return { assignmentId, orderIds: [from.id], equipmentIds: [e.id], current: await bookingState(trx, ids) };
+      if (e.out_of_service) {
+        const message = `${e.unit_number} ${e.name} is out of service${e.out_of_service_reason ? ` (${e.out_of_service_reason})` : ""}; it cannot go on an order`;
+        throw new ApiError(422, `Invalid workOrderId: ${message}.`, { issues: [{ field: "workOrderId", message }] });
+      }
+      const already = await trx("equipment_assignments").where({ work_order_id: to.id, equipment_id: e.id }).first("id");
+      if (already) throw new ApiError(409, `${e.unit_number} is already on ${to.number}.`, { current: await bookingState(trx, ids) });
+      const clash = await trx("equipment_assignments as ea")
+        .join("work_orders as o", "o.id", "ea.work_order_id")
+        .where("ea.equipment_id", e.id)
+        .whereNot("ea.id", assignmentId)
+        .whereNot("o.id", to.id)
+        .whereNot("o.status", "cancelled")
+        .where("o.start_at", "<", to.end_at)
+        .where("o.end_at", ">", to.start_at)
+        .first("o.number");
+      if (clash) {
+        throw new ApiError(409, `${e.unit_number} ${e.name} is already on ${clash.number} at that time (EQUIPMENT_BOOKED). Take it off that order first.`, {
+          current: await bookingState(trx, ids),
+        });
+      }
+      await trx("equipment_assignments").where({ id: assignmentId }).update({ work_order_id: to.id, version: mine.version + 1 });
+      await trx("equipment").where({ id: e.id }).increment("booking_seq", 1);
+      await trx("work_orders").whereIn("id", ids).increment("version", 1).update({ updated_at: new Date() });
+      await audit(trx, actor, actor.organisationId, "equipment.move", "equipment_assignment", assignmentId, {
+        equipmentId: e.id,
+        unit: e.unit_number,
+        from: from.number,
+        to: to.number,
+      });
+      for (const o of [from, to]) {
+        await boardEvent(trx, { organisationId: actor.organisationId, yardId: o.yard_id, day: o.work_date, kind: "equipment", payload: { orderId: o.id } });
+      }
+      return { assignmentId, orderIds: ids, equipmentIds: [e.id], current: await bookingState(trx, ids) };
     }, TX),
   );
 }

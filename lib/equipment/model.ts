@@ -206,6 +206,14 @@ export const equipmentAssignSchema = z
   .strict();
 export type EquipmentAssignInput = z.output<typeof equipmentAssignSchema>;
 
+export const equipmentMoveSchema = z
+  .object({
+    workOrderId: id("workOrderId"),
+    version: z.number({ error: "version is required" }).int().min(0),
+  })
+  .strict();
+export type EquipmentMoveInput = z.output<typeof equipmentMoveSchema>;
+
 export const equipmentUnassignSchema = z.object({
   version: z.coerce.number({ error: "version is required" }).int().min(0),
 });

@@ -131,7 +131,6 @@ describe("equipment register", () => {
       [{ yardId: north.id, kind: "pickup", unitNumber: unit(), name: "x", dielectricTestedOn: "2026-02-30" }, "dielectricTestedOn"],
       [{ yardId: north.id, kind: "pickup", unitNumber: unit(), name: "x", licence: "cdl_c" }, "licence"],
       [{ yardId: north.id, kind: "pickup", unitNumber: unit(), name: "x", outOfService: true }, "outOfServiceReason"],
-      [{ yardId: 999999, kind: "pickup", unitNumber: unit(), name: "x" }, "yardId"],
       [{ yardId: north.id, kind: "pickup", unitNumber: unit(), name: "x", colour: "red" }, "(body)"],
     ];
     for (const [body, field] of cases) {
@@ -139,6 +138,13 @@ describe("equipment register", () => {
       expect(r.status, JSON.stringify(body)).toBe(422);
       expect(r.body.issues.map((i: { field: string }) => i.field), JSON.stringify(body)).toContain(field);
     }
+    // An unknown yard: a supervisor (every yard in scope) gets 422 naming yardId; a dispatcher is
+    // stopped earlier by the yard scope (403: not one of their yards).
+    const noYard = { yardId: 999999, kind: "pickup", unitNumber: unit(), name: "x" };
+    const sup = await (await client("supervisor")).json("/api/equipment", "POST", noYard);
+    expect(sup.status).toBe(422);
+    expect(sup.body.issues[0].field).toBe("yardId");
+    expect((await c.json("/api/equipment", "POST", noYard)).status).toBe(403);
     expect(await count("equipment")).toBe(before);
 
     const id = await truck();
@@ -220,6 +226,33 @@ describe("equipment bookings", () => {
     const now = await c.json("/api/equipment-assignments", "POST", { workOrderId: b.id, equipmentId: id });
     // b (11:00–15:00) overlaps t (12:00–16:00), which still has the truck.
     expect(now.status).toBe(409);
+  });
+
+  it("moves a booked truck to another order in one step, even an overlapping one it leaves; refuses a move onto a clash", async () => {
+    const c = await client("dispatcher");
+    const id = await truck();
+    const a = await makeOrder(db, { offsetDays: OFFSET + 3, positions: ["lead"], workType: "bucket", start: "07:00", end: "12:00" });
+    const b = await makeOrder(db, { offsetDays: OFFSET + 3, positions: ["lead"], workType: "bucket", start: "11:00", end: "15:00" });
+    const c2 = await makeOrder(db, { offsetDays: OFFSET + 3, positions: ["lead"], workType: "bucket", start: "14:00", end: "18:00" });
+    const booked = await c.json("/api/equipment-assignments", "POST", { workOrderId: a.id, equipmentId: id });
+    expect(booked.status).toBe(201);
+    const moved = await c.json(`/api/equipment-assignments/${booked.body.assignmentId}`, "PATCH", { workOrderId: b.id, version: 1 });
+    expect(moved.status).toBe(200);
+    const rows = await db("equipment_assignments").where({ equipment_id: id }).select("work_order_id", "version");
+    expect(rows).toEqual([{ work_order_id: b.id, version: 2 }]);
+    expect(await db("audit_log").where({ action: "equipment.move", entity_id: String(booked.body.assignmentId) }).first()).toBeTruthy();
+    // Stale version: 409, nothing moves.
+    expect((await c.json(`/api/equipment-assignments/${booked.body.assignmentId}`, "PATCH", { workOrderId: a.id, version: 1 })).status).toBe(409);
+    // A second truck on c2 (14:00–18:00) and on a (07:00–12:00): moving its booking from a to b (11:00–15:00) would overlap c2.
+    const second = await truck();
+    const s1 = await c.json("/api/equipment-assignments", "POST", { workOrderId: c2.id, equipmentId: second });
+    expect(s1.status).toBe(201);
+    const s2 = await c.json("/api/equipment-assignments", "POST", { workOrderId: a.id, equipmentId: second });
+    expect(s2.status).toBe(201); // a (07–12) and c2 (14–18) do not overlap
+    const clash = await c.json(`/api/equipment-assignments/${s2.body.assignmentId}`, "PATCH", { workOrderId: b.id, version: 1 });
+    expect(clash.status).toBe(409); // b (11–15) overlaps c2, where the truck also is
+    expect(clash.body.error).toContain(c2.number);
+    expect((await c.json(`/api/equipment-assignments/${s2.body.assignmentId}`, "PATCH", { workOrderId: 0, version: 1 })).status).toBe(422);
   });
 
   it("two concurrent drops of one truck onto overlapping orders: exactly one wins, the other gets 409", async () => {

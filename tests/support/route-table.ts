@@ -203,6 +203,18 @@ export const ROUTES: RouteEntry[] = [
     },
   },
   {
+    method: "PATCH",
+    route: "/api/equipment-assignments/[id]",
+    roles: D,
+    status: 200,
+    audit: true,
+    fuzz: "json",
+    sample: async (fx) => {
+      const b = await fx.booking();
+      return { path: `/api/equipment-assignments/${b.id}`, body: { workOrderId: (await fx.seat()).orderId, version: b.version } };
+    },
+  },
+  {
     method: "DELETE",
     route: "/api/equipment-assignments/[id]",
     roles: D,

@@ -39,10 +39,17 @@ export function parseEquipmentDrop(id: string | number | null | undefined): Equi
   return null;
 }
 
-type EqChange = { kind: "add"; orderId: number; equipmentId: number } | { kind: "remove"; booking: EquipmentBooking };
+type EqChange =
+  | { kind: "add"; orderId: number; equipmentId: number }
+  | { kind: "remove"; booking: EquipmentBooking }
+  | { kind: "move"; booking: EquipmentBooking; orderId: number };
 
 /** The payload with one equipment change, its snapshot and the client engine's findings. */
 export function applyEquipmentLocally(p: BoardPayload, c: EqChange): BoardPayload {
+  if (c.kind === "move") {
+    const off = applyEquipmentLocally(p, { kind: "remove", booking: c.booking });
+    return applyEquipmentLocally(off, { kind: "add", orderId: c.orderId, equipmentId: c.booking.equipmentId });
+  }
   const bookings = p.equipmentBookings ?? [];
   const snap = p.snapshot as DaySnapshot;
   const list = snap.equipmentAssignments ?? [];
@@ -80,6 +87,9 @@ export function useEquipmentDnd(
     mutationFn: async (c: EqChange) => {
       if (c.kind === "add") {
         return call("/api/equipment-assignments", { method: "POST", body: JSON.stringify({ workOrderId: c.orderId, equipmentId: c.equipmentId }) });
+      }
+      if (c.kind === "move") {
+        return call(`/api/equipment-assignments/${c.booking.id}`, { method: "PATCH", body: JSON.stringify({ workOrderId: c.orderId, version: c.booking.version }) });
       }
       return call(`/api/equipment-assignments/${c.booking.id}?version=${c.booking.version}`, { method: "DELETE" });
     },
@@ -121,7 +131,7 @@ export function useEquipmentDnd(
       const booking = bookingById.get(from.bookingId);
       if (!booking) return true;
       if (to.kind === "pool") mutation.mutate({ kind: "remove", booking });
-      else if (to.orderId !== booking.workOrderId) notify("Take the truck back to the equipment pool first, then drop it on the other order.", "error");
+      else if (to.orderId !== booking.workOrderId) mutation.mutate({ kind: "move", booking, orderId: to.orderId });
       return true;
     },
     [byId, bookingById, data?.equipmentBookings, mutation, notify],
