@@ -13,6 +13,7 @@ import { afterAll, beforeAll, describe, expect, it } from "vitest";
 import { dbConfig } from "@/knexfile";
 import type { Role } from "@/lib/auth/roles";
 import { Client } from "../support/client";
+import { streamed } from "../support/raw-http";
 import { isIsoDate } from "@/lib/rules/time";
 import { buildFixtures } from "../support/route-fixtures";
 import { ROUTES, routeKey, type Fx, type RouteEntry, type Sample } from "../support/route-table";
@@ -36,6 +37,8 @@ const OTHER_ORG: Record<string, () => Sample> = {
   "PUT /api/work-types/[id]": () => ({ path: `/api/work-types/${spare.workTypeId}`, body: { name: "Fuzz patrol", minCrew: 1, digs: false, positions: ["lead"] } }),
 };
 const counts = { requests: 0, byStatus: new Map<number, number>() };
+const datesTried = { routes: 0, cases: 0 };
+const streamedTried = { total: 0, refused: 0 };
 
 // --- the nasty values, as JSON text fragments (so keys like __proto__ survive) -----------------
 
@@ -327,6 +330,15 @@ describe("dates: impossible and out-of-range days are refused, never 500", () =>
     const s = own ? own() : await e.sample(fx, who);
     const url = new URL(s.path, "http://x");
     let tried = 0;
+    // Planned before the loops: every date parameter and every date field gets every bad value.
+    const timeValues = BAD_DAYS.length * BAD_TIMES.slice(0, 1).length + BAD_TIMES.length;
+    const planned =
+      [...url.searchParams.values()].filter((v) => /^\d{4}-\d{2}-\d{2}$/.test(v)).length * (BAD_DAYS.length + 1) +
+      (s.body === undefined ? [] : dateFields(s.body)).reduce((n, p) => {
+        let at: unknown = s.body;
+        for (const k of p) at = (at as Record<string | number, unknown>)[k];
+        return n + (String(at).includes("T") ? timeValues : BAD_DAYS.length);
+      }, 0);
     for (const [k, v] of url.searchParams) {
       if (!/^\d{4}-\d{2}-\d{2}$/.test(v)) continue;
       for (const bad of [...BAD_DAYS, "2026-03-08"]) {
@@ -351,7 +363,46 @@ describe("dates: impossible and out-of-range days are refused, never 500", () =>
         expect(r.status, `${e.method} ${s.path} ${p.join(".")}=${bad}: ${r.text.slice(0, 200)}`).toBeLessThan(500);
       }
     }
-    expect(tried).toBeGreaterThanOrEqual(0);
+    // Every planned case was sent (none skipped by an early exit); the total is checked below.
+    expect(tried).toBe(planned);
+    datesTried.cases += tried;
+    if (tried) datesTried.routes++;
+  });
+
+  it("the date cases were real: many routes, hundreds of bad days", () => {
+    expect(datesTried.routes).toBeGreaterThanOrEqual(10);
+    expect(datesTried.cases).toBeGreaterThanOrEqual(300);
+  });
+});
+
+// Streamed oversized bodies (issue 15, finding 7): chunked, with no Content-Length, so nothing
+// but counting as the body arrives can stop them. Every JSON route (readJson's 1 MB limit), every
+// upload (10 MB plus room for the form) and the SMS webhook (20 kB) must answer 413 before the
+// whole body is sent, and never 500. RFC 9110 §15.5.14 (413 Content Too Large).
+describe("streamed oversized bodies are refused while they arrive (413)", () => {
+  const uploads = ROUTES.filter((e) => e.method === "POST" && (e.route === "/api/files" || e.route.endsWith("/photo")));
+  const webhook = ROUTES.filter((e) => e.route === "/api/sms/inbound");
+  const cases = [
+    ...JSON_ROUTES.map((e) => [routeKey(e.method, e.route), e, 32 * 1024 * 1024, "application/json"] as const),
+    ...uploads.map((e) => [routeKey(e.method, e.route), e, 64 * 1024 * 1024, "multipart/form-data; boundary=----fuzz"] as const),
+    ...webhook.map((e) => [routeKey(e.method, e.route), e, 32 * 1024 * 1024, "application/x-www-form-urlencoded"] as const),
+  ];
+  it.each(cases)("%s", async (key, e, size, type) => {
+    const who = fuzzer(e);
+    const c = who === "anon" ? null : OTHER_ORG[key] ? spare.admin : client(who)!;
+    const s = OTHER_ORG[key] ? OTHER_ORG[key]() : await e.sample(fx, who);
+    const cookie = c ? (c as unknown as { cookieHeader(): string }).cookieHeader() : "";
+    const head = Buffer.from(type.startsWith("multipart") ? '------fuzz\r\nContent-Disposition: form-data; name="file"; filename="big.pdf"\r\nContent-Type: application/pdf\r\n\r\n%PDF-1.4\n' : type === "application/json" ? '{"x":"' : "Body=");
+    const r = await streamed(s.path, size, { method: e.method, head, headers: { "content-type": type, ...(cookie ? { cookie } : {}) } });
+    streamedTried.total++;
+    expect(r.status, `${key}: ${r.text.slice(0, 200)}`).toBe(413);
+    expect(r.sentBeforeAnswer, `${key} read the whole body first`).toBeLessThan(size);
+    streamedTried.refused++;
+  });
+  it("every JSON route, upload and the webhook was tried", () => {
+    expect(streamedTried.total).toBe(cases.length);
+    expect(cases.length).toBeGreaterThanOrEqual(40);
+    console.log(`[security] streamed oversized bodies: ${streamedTried.refused}/${streamedTried.total} refused with 413`);
   });
 });
 

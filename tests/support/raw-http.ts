@@ -34,7 +34,7 @@ export function raw(
 }
 
 /**
- * POSTs `totalBytes` of filler in 64 kB chunks with Transfer-Encoding: chunked (no
+ * Sends (POST unless told) `totalBytes` of filler in 64 kB chunks with Transfer-Encoding: chunked (no
  * Content-Length), stopping as soon as an answer arrives. Resolves with the answer and how
  * many bytes had been written by then; a server that reads everything first answers only
  * after all of them.
@@ -42,14 +42,14 @@ export function raw(
 export function streamed(
   path: string,
   totalBytes: number,
-  opts: { headers?: Record<string, string>; head?: Buffer; base?: string } = {},
+  opts: { headers?: Record<string, string>; head?: Buffer; base?: string; method?: string } = {},
 ): Promise<RawResponse> {
   const u = new URL(path, opts.base ?? APP_URL);
   return new Promise((resolve, reject) => {
     let sent = 0;
     let answered = false;
     const req = http.request(
-      { method: "POST", host: u.hostname, port: u.port, path: u.pathname + u.search, headers: { ...opts.headers, "transfer-encoding": "chunked" } },
+      { method: opts.method ?? "POST", host: u.hostname, port: u.port, path: u.pathname + u.search, headers: { ...opts.headers, "transfer-encoding": "chunked" } },
       (res) => {
         answered = true;
         const at = sent;
@@ -62,20 +62,19 @@ export function streamed(
       },
     );
     req.on("error", (err) => {
-      if (!answered) reject(err);
+      // A reset right after the answer: the answer already counted.
+      if (!answered) setTimeout(() => !answered && reject(err), 200);
     });
     const chunk = Buffer.alloc(64 * 1024, 0x61);
+    // One chunk per turn of the event loop, so an early answer is read as soon as it comes
+    // (writing in a tight loop would leave it unread until the server's reset discards it).
     const pump = () => {
-      if (answered) return;
-      if (sent === 0 && opts.head) {
-        sent += opts.head.length;
-        if (!req.write(opts.head)) return void req.once("drain", pump);
-      }
-      while (!answered && sent < totalBytes) {
-        sent += chunk.length;
-        if (!req.write(chunk)) return void req.once("drain", pump);
-      }
-      if (!answered) req.end();
+      if (answered || req.destroyed) return;
+      if (sent >= totalBytes) return void req.end();
+      const piece = sent === 0 && opts.head ? opts.head : chunk;
+      sent += piece.length;
+      if (req.write(piece)) setImmediate(pump);
+      else req.once("drain", () => setImmediate(pump));
     };
     pump();
   });
