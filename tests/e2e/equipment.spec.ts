@@ -89,3 +89,22 @@ test("the same drop done with the keyboard (Space, arrow keys, Space), then back
   expect((await removed).status()).toBe(200);
   await expect(target).not.toContainText("N-502");
 });
+
+test("a booked derrick is moved to another order by drag, in one step, and back", async ({ page }) => {
+  // Demo: N-407 (North's digger derrick) is on WO-26-0103; WO-26-0104 is a pole set without one.
+  await signIn(page, "dispatcher");
+  const from = page.getByTestId("eqseat-WO-26-0103");
+  const to = page.getByTestId("eqseat-WO-26-0104");
+  await expect(from).toContainText("N-407");
+  const d = await drag(page, '[data-testid="eqseat-WO-26-0103"] [data-testid="booked-N-407"]', '[data-testid="eqseat-WO-26-0104"]');
+  const moved = page.waitForResponse((r) => r.url().includes("/api/equipment-assignments/") && r.request().method() === "PATCH");
+  await d.drop();
+  expect((await moved).status()).toBe(200);
+  await expect(to).toContainText("N-407");
+  await expect(from).toContainText("open");
+  const back = await drag(page, '[data-testid="eqseat-WO-26-0104"] [data-testid="booked-N-407"]', '[data-testid="eqseat-WO-26-0103"]');
+  const again = page.waitForResponse((r) => r.url().includes("/api/equipment-assignments/") && r.request().method() === "PATCH");
+  await back.drop();
+  expect((await again).status()).toBe(200);
+  await expect(from).toContainText("N-407");
+});

@@ -47,8 +47,11 @@ type EqChange =
 /** The payload with one equipment change, its snapshot and the client engine's findings. */
 export function applyEquipmentLocally(p: BoardPayload, c: EqChange): BoardPayload {
   if (c.kind === "move") {
+    // The server moves the same booking row (version + 1): keep its id, so it can be dragged again at once.
     const off = applyEquipmentLocally(p, { kind: "remove", booking: c.booking });
-    return applyEquipmentLocally(off, { kind: "add", orderId: c.orderId, equipmentId: c.booking.equipmentId });
+    const added = applyEquipmentLocally(off, { kind: "add", orderId: c.orderId, equipmentId: c.booking.equipmentId });
+    const moved = { ...c.booking, workOrderId: c.orderId, version: c.booking.version + 1 };
+    return { ...added, equipmentBookings: [...(off.equipmentBookings ?? []), moved] };
   }
   const bookings = p.equipmentBookings ?? [];
   const snap = p.snapshot as DaySnapshot;
