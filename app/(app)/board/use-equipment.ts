@@ -44,6 +44,9 @@ type EqChange =
   | { kind: "remove"; booking: EquipmentBooking }
   | { kind: "move"; booking: EquipmentBooking; orderId: number };
 
+/** Ids for bookings not yet saved: negative and never repeated (two drops in one millisecond stay apart). */
+let tempIds = 0;
+
 /** The payload with one equipment change, its snapshot and the client engine's findings. */
 export function applyEquipmentLocally(p: BoardPayload, c: EqChange): BoardPayload {
   if (c.kind === "move") {
@@ -59,7 +62,7 @@ export function applyEquipmentLocally(p: BoardPayload, c: EqChange): BoardPayloa
   let nextBookings: EquipmentBooking[];
   let nextList: typeof list;
   if (c.kind === "add") {
-    nextBookings = [...bookings, { id: -Date.now(), workOrderId: c.orderId, equipmentId: c.equipmentId, version: 1 }];
+    nextBookings = [...bookings, { id: --tempIds, workOrderId: c.orderId, equipmentId: c.equipmentId, version: 1 }];
     nextList = [...list, { workOrderId: String(c.orderId), equipmentId: String(c.equipmentId) }];
   } else {
     nextBookings = bookings.filter((b) => b.id !== c.booking.id);
