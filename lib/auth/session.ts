@@ -46,19 +46,20 @@ export type YardAccess = "edit" | "read" | "contact";
 
 const ALL_YARDS: Role[] = ["supervisor", "admin"];
 
-/** The yard ids this user may edit, or "all". */
+/**
+ * The yard ids this user may edit, or "all". Only dispatchers are limited to yards; for every
+ * other role the role checks decide (hr keeps every yard's time and leave, a lineworker only
+ * their own records).
+ */
 export async function editableYards(user: SessionUser): Promise<number[] | "all"> {
-  if (ALL_YARDS.includes(user.role)) return "all";
-  if (user.role !== "dispatcher") return [];
+  if (ALL_YARDS.includes(user.role) || user.role !== "dispatcher") return "all";
   const rows = await db()("user_yards").where({ user_id: user.id }).pluck("yard_id");
   return rows.map(Number);
 }
 
 /** Whether the user may see phone, e-mail and texts of a yard's workers. */
 export async function contactYards(user: SessionUser): Promise<number[] | "all"> {
-  if (user.role === "hr" || ALL_YARDS.includes(user.role)) return "all";
-  if (user.role === "dispatcher") return editableYards(user);
-  return [];
+  return editableYards(user);
 }
 
 export async function canAccessYard(user: SessionUser, yardId: number, mode: YardAccess): Promise<boolean> {
@@ -72,8 +73,8 @@ export async function requireYardAccess(user: SessionUser, yardId: number | null
   if (yardId === null || yardId === undefined) return;
   if (await canAccessYard(user, yardId, mode)) return;
   const yard = await db()("yards").where({ id: yardId }).first("name");
-  const what = mode === "edit" ? "change" : "see contact details or messages of";
-  throw new ApiError(403, `You cannot ${what} ${yard?.name ?? "that"} yard: it is not one of your yards.`, { reason: "yard_scope", yardId });
+  const what = mode === "edit" ? "change the work of" : "see contact details or messages of";
+  throw new ApiError(403, `You cannot ${what} ${yard?.name ?? "that yard"}: it is not one of your yards.`, { reason: "yard_scope", yardId });
 }
 
 /** Each yard id once, checked in turn (a write touching two yards needs both). */

@@ -48,7 +48,7 @@ async function yardsOf(org: number, r: YardRefs): Promise<number[]> {
 
 /** 403 unless the user may `mode` every yard the given records belong to. */
 export async function yardScope(user: SessionUser, mode: YardAccess, refs: YardRefs): Promise<void> {
-  if (user.role === "supervisor" || user.role === "admin") return; // every yard
+  if (user.role !== "dispatcher") return; // only dispatchers are limited to their yards
   await requireYardsAccess(user, await yardsOf(user.organisationId, refs), mode);
 }
 

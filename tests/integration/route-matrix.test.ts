@@ -176,6 +176,45 @@ describe("every route for every role", () => {
   });
 });
 
+// --- yard scope: a dispatcher of one yard against every route of another (issue 15) -----------
+// Every sample is built on the North yard's records (fixtures). The Mesa dispatcher may read
+// North's board and records (to borrow a crew) but changes nothing of North's, and reads no
+// North worker's phone, e-mail or texts: each mutation a dispatcher may call answers 403 and
+// writes no audit row, unless its table entry says why it touches no yard.
+
+describe("a dispatcher of another yard (Mesa) against every route a dispatcher may call", () => {
+  let mesa: Client;
+  beforeAll(async () => {
+    mesa = new Client();
+    const r = await mesa.signIn("dispatch.mesa@cedarprairie.example", "board-mesa-26");
+    if (!r.signedIn) throw new Error(`Mesa dispatcher sign-in failed: ${r.status}`);
+  });
+  const mine = ROUTES.filter((e) => e.roles !== "public" && e.roles.includes("dispatcher"));
+  const scoped = (e: RouteEntry) => e.yard === "edit" || e.yard === "contact" || (e.yard === undefined && e.method !== "GET");
+  it("the fixtures' yard is North and the Mesa dispatcher is assigned Mesa only", async () => {
+    expect(fx.yard.code).toBe("NOR");
+    const u = await db("users").where({ email: "dispatch.mesa@cedarprairie.example" }).first("id");
+    const yards = await db("user_yards as uy").join("yards as y", "y.id", "uy.yard_id").where("uy.user_id", u.id).pluck("y.code");
+    expect(yards).toEqual(["MES"]);
+    expect(mine.filter(scoped).length).toBeGreaterThanOrEqual(30);
+  });
+  it.each(mine.map((e) => [routeKey(e.method, e.route), e] as const))("%s", async (key, e) => {
+    const s = await e.sample(fx, "dispatcher");
+    const before = await auditMax();
+    const r = await call(mesa, e.method, s);
+    const wrote = Number((await db("audit_log").where("id", ">", before).count({ n: "*" }).first())?.n ?? 0);
+    outcomes.push({ key: `${key} (other yard)`, caller: "dispatcher", status: r.status, audit: wrote });
+    if (scoped(e)) {
+      expect(r.status, `Mesa → ${key}: ${r.text.slice(0, 300)}`).toBe(403);
+      expect(JSON.parse(r.text).error, `Mesa → ${key} says why`).toMatch(/yard/);
+      expect(wrote, `Mesa → ${key} was refused but wrote an audit row`).toBe(0);
+    } else {
+      expect(r.status, `Mesa → ${key}: ${r.text.slice(0, 300)}`).not.toBe(403);
+      expect(r.status, `Mesa → ${key}: ${r.text.slice(0, 300)}`).toBeLessThan(500);
+    }
+  });
+});
+
 // --- a lineworker reads only their own ---------------------------------------------------------
 
 describe("a lineworker (Marcus Whitfield, CP-1001) reads and writes only their own", () => {

@@ -112,6 +112,12 @@ export interface RouteEntry {
   audit?: true | string;
   /** The body is JSON read with readJson (fuzzed), or the query goes through readQuery (fuzzed). */
   fuzz?: "json" | "query";
+  /**
+   * Yard scope (issue 15): what a dispatcher of ANOTHER yard gets for the sample (built on the
+   * North yard's records). Default: a mutation is refused (403), a read is allowed. "edit" or
+   * "contact": refused (403) even as a read. A sentence: why the route touches no yard.
+   */
+  yard?: "edit" | "contact" | string;
 }
 
 export const ALL_ROLES: Role[] = ["admin", "dispatcher", "supervisor", "hr", "lineworker"];
@@ -325,6 +331,7 @@ export const ROUTES: RouteEntry[] = [
   {
     method: "POST",
     route: "/api/crew-check",
+    yard: "a day file posted for checking; nothing of any yard is read or stored",
     roles: D,
     status: 200,
     audit: "computes findings over the posted day; writes nothing",
@@ -373,6 +380,7 @@ export const ROUTES: RouteEntry[] = [
   {
     method: "GET",
     route: "/api/callout",
+    yard: "edit",
     roles: D,
     status: 200,
     fuzz: "query",
@@ -907,6 +915,7 @@ export const ROUTES: RouteEntry[] = [
   {
     method: "PATCH",
     route: "/api/messages/inbound/[id]",
+    yard: "the sample is a reply from an unknown number: it belongs to no yard",
     roles: D,
     status: 200,
     audit: true,
@@ -916,6 +925,7 @@ export const ROUTES: RouteEntry[] = [
   {
     method: "GET",
     route: "/api/phone",
+    yard: "contact",
     roles: DA,
     status: 200,
     fuzz: "query",
@@ -1081,6 +1091,67 @@ export const ROUTES: RouteEntry[] = [
       await fx.db("lift_plans").insert({ work_order_id: s.orderId, load_lb: 400, parts_of_line: 3, sheaves: 3 });
       return { path: `/api/briefings/${s.orderId}/lift`, body: { version: 1, siteWeightLb: 415 } };
     },
+  },
+  // --- users and passwords (issue 18 point 6; issue 15) -----------------------------------------
+  {
+    method: "GET",
+    route: "/api/users",
+    roles: ["admin"],
+    status: 200,
+    sample: () => ({ path: "/api/users" }),
+  },
+  {
+    method: "POST",
+    route: "/api/users",
+    roles: ["admin"],
+    status: 201,
+    audit: true,
+    fuzz: "json",
+    sample: (fx) => ({ path: "/api/users", body: { email: `rm-${fx.uniq()}@cedarprairie.example`, name: "Route Matrix", role: "hr", yardIds: [] } }),
+  },
+  {
+    method: "PATCH",
+    route: "/api/users/[id]",
+    roles: ["admin"],
+    status: 200,
+    audit: true,
+    fuzz: "json",
+    sample: async (fx) => {
+      const [id] = await fx.db("users").insert({ organisation_id: fx.orgId, email: `rm-${fx.uniq()}@cedarprairie.example`, name: "Route Matrix", role: "hr", password_hash: "x" });
+      return { path: `/api/users/${id}`, body: { role: "supervisor" } };
+    },
+  },
+  {
+    method: "POST",
+    route: "/api/users/[id]/reset",
+    roles: ["admin"],
+    status: 201,
+    audit: true,
+    sample: async (fx) => {
+      const [id] = await fx.db("users").insert({ organisation_id: fx.orgId, email: `rm-${fx.uniq()}@cedarprairie.example`, name: "Route Matrix", role: "hr", password_hash: "x" });
+      return { path: `/api/users/${id}/reset` };
+    },
+  },
+  {
+    method: "POST",
+    route: "/api/me/password",
+    roles: ALL_ROLES,
+    // A wrong current password: refused, the caller's sessions (used by the rest of the matrix) live on.
+    status: 422,
+    audit: "the sample's current password is wrong: nothing changes",
+    yard: "one's own password belongs to no yard",
+    fuzz: "json",
+    sample: () => ({ path: "/api/me/password", body: { currentPassword: "not-the-password", newPassword: "route-matrix-new-26" } }),
+  },
+  {
+    method: "POST",
+    route: "/api/password-reset",
+    roles: "public",
+    // An unknown link: 410, nothing changes (the e-mailed token is the only proof).
+    status: 410,
+    audit: "an unknown reset link changes nothing",
+    fuzz: "json",
+    sample: (fx) => ({ path: "/api/password-reset", body: { token: `unknown-${fx.uniq()}-link-of-route-matrix`, password: "route-matrix-new-26" } }),
   },
 ];
 
