@@ -28,6 +28,8 @@ test("drag a bucket truck onto a bucket order: it is seated and the EQUIPMENT bl
   await expect(await equipmentFindings(page)).toHaveCount(1);
 
   const d = await drag(page, '[data-testid="pool-truck-N-314"]', `[data-testid="eqseat-${ORDER}"]`);
+  // Hovering answers before the drop, as for people.
+  await expect(seatSlot.getByRole("status")).toHaveText(/No new block/);
   const placed = page.waitForResponse((r) => r.url().endsWith("/api/equipment-assignments") && r.request().method() === "POST");
   await d.drop();
   // Seated at once (optimistic), and the client engine already drops the finding.
@@ -39,6 +41,11 @@ test("drag a bucket truck onto a bucket order: it is seated and the EQUIPMENT bl
   await expect(page.getByTestId(`eqseat-${ORDER}`)).toContainText("N-314");
   await expect(await equipmentFindings(page)).toHaveCount(0);
   await expect(page.getByTestId("pool-truck-N-314")).toContainText(`on ${ORDER}`);
+  // The same truck over an order at an overlapping time (WO-26-0108, 09:00–15:00): would block.
+  const twice = await drag(page, '[data-testid="pool-truck-N-314"]', '[data-testid="eqadd-WO-26-0108"]');
+  await expect(page.getByTestId("eqadd-WO-26-0108").getByRole("status")).toHaveText(/Would block: EQUIPMENT_BOOKED/);
+  await page.keyboard.press("Escape");
+  await twice.drop();
 
   // Off again: the seat opens and the block returns.
   const back = await drag(page, `[data-testid="eqseat-${ORDER}"] [data-testid="booked-N-314"]`, '[data-testid="equipment-pool-drop"]');

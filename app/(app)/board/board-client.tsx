@@ -68,11 +68,13 @@ export function BoardClient({
   const [history, setHistory] = useState<{ change: Change; label: string }[]>([]);
   useLiveEvents(key, data?.cursor, activeId !== null || mutation.isPending);
   // Equipment (issue 16): trucks dragged with the same sensors; their own locked write path.
-  const equipmentDnd = useEquipmentDnd(key, data, notify);
+  const equipmentDnd = useEquipmentDnd(key, data, notify, { activeId, overId });
   const equipmentById = useMemo(() => new Map((data?.equipment ?? []).map((e) => [e.id, e])), [data?.equipment]);
   const equipmentRow = useCallback(
-    (card: OrderCard) => <EquipmentSeats card={card} bookings={data?.equipmentBookings ?? []} equipment={equipmentById} day={data?.day ?? day} />,
-    [data?.equipmentBookings, equipmentById, data?.day, day],
+    (card: OrderCard) => (
+      <EquipmentSeats card={card} bookings={data?.equipmentBookings ?? []} equipment={equipmentById} day={data?.day ?? day} preview={equipmentDnd.preview} />
+    ),
+    [data?.equipmentBookings, equipmentById, data?.day, day, equipmentDnd.preview],
   );
 
   // Leaving the page while a change is still on its way would lose it: ask first.

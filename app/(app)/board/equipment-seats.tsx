@@ -3,6 +3,7 @@
 // An order's equipment row on the board: a seat for each truck its work type needs (a bucket
 // order a bucket truck, a digger-derrick order a derrick) and room for any further equipment.
 import { useDraggable, useDroppable } from "@dnd-kit/core";
+import type { Finding } from "@/lib/rules/types";
 import type { EquipmentBooking, OrderCard } from "@/lib/board/types";
 import { EQUIPMENT_KIND_LABEL, REQUIRED_KIND, dielectricState, type Equipment, type EquipmentKind } from "@/lib/equipment/model";
 import { bookingDragId, equipmentAddId, equipmentSeatId } from "./use-equipment";
@@ -28,7 +29,7 @@ function Booked({ b, e, day }: { b: EquipmentBooking; e: Equipment | undefined; 
   );
 }
 
-function Slot({ id, label, testId, children }: { id: string; label: string; testId: string; children?: React.ReactNode }) {
+function Slot({ id, label, testId, preview, children }: { id: string; label: string; testId: string; preview?: Finding[] | null; children?: React.ReactNode }) {
   const { setNodeRef, isOver } = useDroppable({ id });
   return (
     <li
@@ -36,10 +37,15 @@ function Slot({ id, label, testId, children }: { id: string; label: string; test
       data-testid={testId}
       aria-label={label}
       className={`flex min-h-8 flex-wrap items-center gap-1 rounded-md border border-dashed px-2 py-1 text-xs ${
-        isOver ? "border-copper bg-copper/10" : "border-rule"
+        isOver && preview?.length ? "border-block bg-block-bg" : isOver ? "border-copper bg-copper/10" : "border-rule"
       }`}
     >
       {children}
+      {isOver && preview && (
+        <span role="status" className={`w-full text-xs font-bold ${preview.length ? "text-block" : "text-clear"}`}>
+          {preview.length ? `✖ Would block: ${[...new Set(preview.map((f) => f.rule))].join(", ")}` : "✓ No new block"}
+        </span>
+      )}
     </li>
   );
 }
@@ -49,12 +55,16 @@ export function EquipmentSeats({
   bookings,
   equipment,
   day,
+  preview,
 }: {
   card: OrderCard;
   bookings: EquipmentBooking[];
   equipment: Map<number, Equipment>;
   day: string;
+  /** The hover answer for a truck over this order (use-equipment.ts). */
+  preview?: { orderId: number; blocks: Finding[] } | null;
 }) {
+  const mineNow = preview && preview.orderId === card.id ? preview.blocks : null;
   const need = REQUIRED_KIND[card.ruleType] as EquipmentKind | undefined;
   const mine = bookings.filter((b) => b.workOrderId === card.id);
   const seated = need ? mine.find((b) => equipment.get(b.equipmentId)?.kind === need) : undefined;
@@ -62,12 +72,12 @@ export function EquipmentSeats({
   return (
     <ul className="mt-2 grid gap-1.5 sm:grid-cols-2" aria-label={`Equipment on ${card.number}`} data-testid={`equipment-${card.number}`}>
       {need && (
-        <Slot id={equipmentSeatId(card.id, need)} label={`${EQUIPMENT_KIND_LABEL[need]} seat on ${card.number}`} testId={`eqseat-${card.number}`}>
+        <Slot id={equipmentSeatId(card.id, need)} label={`${EQUIPMENT_KIND_LABEL[need]} seat on ${card.number}`} testId={`eqseat-${card.number}`} preview={mineNow}>
           <span className="font-semibold text-ink-500">{EQUIPMENT_KIND_LABEL[need]}</span>
           {seated ? <Booked b={seated} e={equipment.get(seated.equipmentId)} day={day} /> : <span className="text-ink-300">open</span>}
         </Slot>
       )}
-      <Slot id={equipmentAddId(card.id)} label={`Further equipment on ${card.number}`} testId={`eqadd-${card.number}`}>
+      <Slot id={equipmentAddId(card.id)} label={`Further equipment on ${card.number}`} testId={`eqadd-${card.number}`} preview={mineNow}>
         <span className="font-semibold text-ink-500">{need ? "More equipment" : "Equipment"}</span>
         {extra.map((b) => (
           <Booked key={b.id} b={b} e={equipment.get(b.equipmentId)} day={day} />

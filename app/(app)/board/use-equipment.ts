@@ -9,7 +9,7 @@ import { useMutation, useQueryClient } from "@tanstack/react-query";
 import { useCallback, useMemo } from "react";
 import type { BoardPayload, EquipmentBooking } from "@/lib/board/types";
 import { findingsForOrders } from "@/lib/rules/engine";
-import type { DaySnapshot } from "@/lib/rules/types";
+import type { DaySnapshot, Finding } from "@/lib/rules/types";
 import { EQUIPMENT_KIND_LABEL, type Equipment } from "@/lib/equipment/model";
 import { call, HttpError, type BoardKey } from "./use-board";
 
@@ -79,10 +79,21 @@ export function applyEquipmentLocally(p: BoardPayload, c: EqChange): BoardPayloa
   return { ...p, equipmentBookings: nextBookings, snapshot, findings: findingsForOrders(snapshot, p.boardOrderIds) };
 }
 
+/**
+ * The new blocks a truck dropped on an order would raise (what the client engine finds after
+ * the change, less what it finds now), for the hover answer on the equipment row.
+ */
+export function previewEquipmentDrop(p: BoardPayload, c: EqChange): Finding[] {
+  const key = (f: Finding) => `${f.rule}|${f.workOrderId}|${f.workerId ?? ""}|${f.equipmentId ?? ""}`;
+  const before = new Set(p.findings.filter((f) => f.level === "block").map(key));
+  return applyEquipmentLocally(p, c).findings.filter((f) => f.level === "block" && !before.has(key(f)));
+}
+
 export function useEquipmentDnd(
   key: BoardKey,
   data: BoardPayload | undefined,
   notify: (msg: string, tone?: "ok" | "error") => void,
+  hover?: { activeId: string | null; overId: string | null },
 ) {
   const qc = useQueryClient();
   const byId = useMemo(() => new Map((data?.equipment ?? []).map((e) => [e.id, e])), [data?.equipment]);
@@ -168,5 +179,23 @@ export function useEquipmentDnd(
     [byId, bookingById],
   );
 
-  return { onDragEnd, describe, dragged, isPending: mutation.isPending };
+  // The answer while a truck hovers over an order's equipment row (computed once per target).
+  const activeId = hover?.activeId ?? null;
+  const overId = hover?.overId ?? null;
+  const preview = useMemo((): { orderId: number; blocks: Finding[] } | null => {
+    if (!data) return null;
+    const from = parseEquipmentDrag(activeId);
+    const to = parseEquipmentDrop(overId);
+    if (!from || !to || to.kind !== "order") return null;
+    if (from.kind === "truck") {
+      if (byId.get(from.equipmentId)?.outOfService) return null;
+      if ((data.equipmentBookings ?? []).some((b) => b.workOrderId === to.orderId && b.equipmentId === from.equipmentId)) return null;
+      return { orderId: to.orderId, blocks: previewEquipmentDrop(data, { kind: "add", orderId: to.orderId, equipmentId: from.equipmentId }) };
+    }
+    const booking = bookingById.get(from.bookingId);
+    if (!booking || booking.workOrderId === to.orderId) return null;
+    return { orderId: to.orderId, blocks: previewEquipmentDrop(data, { kind: "move", booking, orderId: to.orderId }) };
+  }, [data, activeId, overId, byId, bookingById]);
+
+  return { onDragEnd, describe, dragged, preview, isPending: mutation.isPending };
 }
