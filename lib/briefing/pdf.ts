@@ -3,6 +3,7 @@
 // are embedded small. Server only.
 import { PDFDocument, StandardFonts, rgb, type PDFFont, type PDFImage, type PDFPage } from "pdf-lib";
 import { fmtDateTime } from "@/lib/format";
+import { energyLabel } from "@/lib/orders/voltage";
 import type { BriefingView } from "@/lib/data/briefings";
 import { CONTROLS, FAIL_ACTIONS, FT_TO_M, GEAR, HAZARDS, POLE_CHECKS, type GearCheck } from "@/lib/validation/briefing";
 
@@ -196,7 +197,7 @@ export async function briefingPdf(view: BriefingView, photos: PhotoBytes[] = [],
   w.text(`${order.number}  ${order.title}`, { size: 16, bold: true, gap: 6 });
   w.pair("Where", [order.address, order.structureNo ? `pole ${order.structureNo}` : null].filter(Boolean).join(", "));
   w.pair("When", `${fmtDateTime(order.start, tz)} to ${fmtDateTime(order.end, tz)} (${order.yardName}, ${tz})`);
-  w.pair("Work", `${order.workTypeName}; ${order.energized ? `energized${order.voltageKv !== null ? `, ${order.voltageKv} kV` : ""}` : "de-energized"}`);
+  w.pair("Work", `${order.workTypeName}; ${energyLabel(order)}`);
   const stateWord =
     briefing?.state === "briefed" ? `completed ${briefing.completedAt ? fmtDateTime(briefing.completedAt, tz) : ""}` : briefing?.state === "on_hold" ? "ON HOLD" : "draft, not completed";
   w.pair("Briefing", `round ${briefing?.round ?? 1}, ${stateWord}${briefing?.reason ? `. Re-brief: ${briefing.reason}` : ""}`);

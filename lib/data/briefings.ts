@@ -13,6 +13,7 @@
 import type { Knex } from "knex";
 import { ApiError } from "@/lib/api/http";
 import { audit, type Actor } from "@/lib/data/audit";
+import { voltageLabel } from "@/lib/orders/voltage";
 import { boardEvent } from "@/lib/data/events";
 import { appPublicUrl } from "@/lib/notify/config";
 import { assertAttachable } from "@/lib/files";
@@ -72,6 +73,10 @@ export interface OrderFacts {
   yardName: string;
   energized: boolean;
   voltageKv: number | null;
+  /** Issue 14: a single-phase tap (phases 1, its system voltage) and live parts beside de-energized work. */
+  phases: number;
+  systemKv: number | null;
+  nearEnergizedKv: number | null;
   status: string;
   holdReason: string | null;
   briefingState: string;
@@ -181,6 +186,9 @@ async function orderFacts(q: Q, organisationId: number, orderId: number, lock = 
     yardName: String(r.yard_name),
     energized: Boolean(r.energized),
     voltageKv: num(r.voltage_kv),
+    phases: Number(r.phases) === 1 ? 1 : 3,
+    systemKv: num(r.system_kv),
+    nearEnergizedKv: num(r.near_energized_kv),
     status: String(r.status),
     holdReason: r.hold_reason ?? null,
     briefingState: String(r.briefing_state),
@@ -281,7 +289,11 @@ export function prefill(order: OrderFacts, crew: CrewMember[], leadWorkerId: num
   const d = emptyBriefing();
   if (order.energized) {
     d.hazards.energized.present = true;
-    d.hazards.energized.notes = `Energized ${order.voltageKv !== null ? `${order.voltageKv} kV ` : ""}primary on this pole and the spans either side.`;
+    const label = voltageLabel(order);
+    d.hazards.energized.notes = `Energized ${label ? `${label} ` : ""}primary on this pole and the spans either side.`;
+  } else if (order.nearEnergizedKv !== null && order.nearEnergizedKv > 0) {
+    d.hazards.energized.present = true;
+    d.hazards.energized.notes = `This work is de-energized, but parts energized at ${order.nearEnergizedKv} kV are within reach: keep the minimum approach distance from them and cover them up.`;
   }
   // Those aloft: climbers and whoever is in the bucket (CREW-CHECK.md, Corrections 3).
   const climbers = crew.filter((c) => c.climbs || c.positions.includes("aerial")).map((c) => c.workerId);

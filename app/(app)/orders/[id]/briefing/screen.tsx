@@ -4,6 +4,7 @@ import Link from "next/link";
 import { useCallback, useEffect, useState } from "react";
 import { Badge, SafetyNote, StateIcon, type Tone } from "@/components/status";
 import { FormAlert, sendJson } from "@/components/form-bits";
+import { energyLabel } from "@/lib/orders/voltage";
 import { AckForm } from "./ack-form";
 import { BriefingEditor, type ScreenView } from "./editor";
 import { BriefingSheet } from "./sheet";
@@ -115,7 +116,7 @@ export function BriefingScreen({ initial, backHref, figures }: { initial: Screen
             </p>
           )}
           <p className="text-sm text-ink-700">
-            {order.workTypeName} · {order.energized ? `energized${order.voltageKv !== null ? `, ${order.voltageKv} kV` : ""}` : "de-energized"}
+            {order.workTypeName} · {energyLabel(order)}
           </p>
         </div>
         <div className="flex flex-wrap gap-2 print:hidden">
