@@ -62,7 +62,7 @@ function toEquipment(r: Record<string, any>, rigging: RiggingItem[]): Equipment 
 export async function listEquipment(
   db: Q,
   organisationId: number,
-  f: { yardCode?: string; kind?: string; inService?: boolean; ids?: number[] } = {},
+  f: { yardCode?: string; kind?: string; inService?: boolean; ids?: number[]; withRigging?: boolean } = {},
 ): Promise<Equipment[]> {
   const q = db("equipment as e")
     .join("yards as y", "y.id", "e.yard_id")
@@ -74,7 +74,7 @@ export async function listEquipment(
   if (f.inService !== undefined) q.where("e.out_of_service", !f.inService);
   if (f.ids) q.whereIn("e.id", f.ids);
   const rows = await q;
-  const rigging = rows.length
+  const rigging = rows.length && f.withRigging !== false
     ? (await db("equipment_rigging").whereIn("equipment_id", rows.map((r) => r.id)).orderBy(["equipment_id", "kind", "id"])).map(toRigging)
     : [];
   return rows.map((r) => toEquipment(r, rigging));
@@ -446,7 +446,8 @@ export async function equipmentForSnapshot(
   contextOrderIds: number[];
   rows: Equipment[];
 }> {
-  const rows = await listEquipment(db, organisationId);
+  // The rules read no rigging: leave it out of every write's re-check.
+  const rows = await listEquipment(db, organisationId, { withRigging: false });
   const on = orderIds.length
     ? await db("equipment_assignments").whereIn("work_order_id", orderIds).select("id", "work_order_id", "equipment_id", "version")
     : [];

@@ -12,7 +12,7 @@ export async function fillTrucks(db: Knex, organisationId: number, problem: Fill
   const from = new Date(Math.min(...ruleOrders.map((o) => o.start)));
   const to = new Date(Math.max(...ruleOrders.map((o) => o.end)));
   const [equipment, rows] = await Promise.all([
-    listEquipment(db, organisationId, { inService: true }),
+    listEquipment(db, organisationId, { inService: true, withRigging: false }),
     db("equipment_assignments as ea")
       .join("work_orders as o", "o.id", "ea.work_order_id")
       .join("equipment as e", "e.id", "ea.equipment_id")
