@@ -22,7 +22,8 @@
 // Scaled out on Galera (README "Scaling out"), FOR UPDATE and SKIP LOCKED hold only on the node
 // that runs them: two loops on two nodes would take the same rows and one of the two claims
 // would fail certification at commit (1213) every time. So the claim is partitioned: a row
-// belongs to partition id MOD P, where P is the number of database nodes in DB_HOSTS and an
+// belongs to partition CRC32(id) MOD P (a hash: Galera hands each node ids of one residue
+// modulo the cluster size, so id MOD P would put every row in its writer's partition), where P is the number of database nodes in DB_HOSTS and an
 // instance's partition is the position of its own (first-listed) node in the sorted list
 // (DELIVERY_PARTITION=k/P overrides). Instances on the same node share a partition and SKIP
 // LOCKED keeps them apart there. A row of another partition is taken only once it has waited
@@ -183,7 +184,7 @@ function inPartition(q: Knex.QueryBuilder, trx: Knex.Transaction, column: "next_
   const { index, count } = deliveryPartition();
   if (count < 2) return q;
   return q.where((w) =>
-    w.whereRaw("MOD(id, ?) = ?", [count, index]).orWhere(column, "<", trx.raw("UTC_TIMESTAMP(3) - INTERVAL ? SECOND", [PARTITION_GRACE_SECONDS + extraSeconds])),
+    w.whereRaw("MOD(CRC32(id), ?) = ?", [count, index]).orWhere(column, "<", trx.raw("UTC_TIMESTAMP(3) - INTERVAL ? SECOND", [PARTITION_GRACE_SECONDS + extraSeconds])),
   );
 }
 
