@@ -67,7 +67,7 @@ export function UsersClient({ me, users, yards, workers }: { me: number; users: 
             {message.ok ? "✓" : "✖"} {message.text}
           </p>
         )}
-        <table className="w-full text-left text-sm">
+        <table className="w-full min-w-[46rem] text-left text-sm">
           <thead className="text-xs uppercase text-ink-500">
             <tr>
               <th className="py-1 pr-3">Name</th>
