@@ -34,7 +34,9 @@ export const DEMO_GEAR: DemoGear[] = WORKERS.filter((w) => CLIMBING.has(w.cls)).
   if (w.no === CLASS_0_ONLY) return [{ no: w.no, kind: "rubber_gloves", class: "0", size, testedDaysAgo: 40, issuedDaysAgo: 400 }];
   if (w.no === OVERDUE_TEST) return [{ no: w.no, kind: "rubber_gloves", class: "2", size, testedDaysAgo: 214, issuedDaysAgo: 214 }];
   if (w.no === DUE_SOON) return [{ no: w.no, kind: "rubber_gloves", class: "2", size, testedDaysAgo: 166, issuedDaysAgo: 166 }];
-  const gloves: DemoGear = { no: w.no, kind: "rubber_gloves", class: "2", size, testedDaysAgo: 8 + ((i * 7) % 30), issuedDaysAgo: 5 + ((i * 7) % 30) };
+  // Tested in the tool room's round last week, so they stay in test for the next ~6 months
+  // (the far-off days that tests and Fill plan on included).
+  const gloves: DemoGear = { no: w.no, kind: "rubber_gloves", class: "2", size, testedDaysAgo: 1 + (i % 5), issuedDaysAgo: 1 + (i % 5) };
   // Journeymen and crew leads also wear class 2 sleeves (12-month test).
   const sleeves: DemoGear[] =
     w.cls === "apprentice" ? [] : [{ no: w.no, kind: "rubber_sleeves", class: "2", size: i % 2 ? "regular" : "long", testedDaysAgo: 30 + ((i * 13) % 90) }];
