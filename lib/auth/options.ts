@@ -2,7 +2,7 @@ import bcrypt from "bcryptjs";
 import type { NextAuthOptions } from "next-auth";
 import CredentialsProvider from "next-auth/providers/credentials";
 import { z } from "zod";
-import { db } from "@/lib/db";
+import { db, isDbUnavailable } from "@/lib/db";
 import { clientAddress } from "./client-address";
 import { recordSignIn, signInGate } from "./rate-limit";
 import { createSession, liveSessionUser, revokeSession, SESSION_MAX_AGE_SECONDS } from "./sessions";
@@ -91,10 +91,19 @@ export const authOptions: NextAuthOptions = {
     async session({ session, token }) {
       // Checked on every request: a revoked or expired session, a deactivated user or a role
       // that changed since sign-in leave no user in the session (requireRole answers 401).
-      const live =
-        typeof token.sid === "string" && typeof token.uid === "number"
-          ? await liveSessionUser(db(), token.sid, token.uid, String(token.role))
-          : null;
+      let live: Awaited<ReturnType<typeof liveSessionUser>> = null;
+      try {
+        live =
+          typeof token.sid === "string" && typeof token.uid === "number"
+            ? await liveSessionUser(db(), token.sid, token.uid, String(token.role))
+            : null;
+      } catch (err) {
+        // The session could not be checked (database down, or a frozen node's statement time-out):
+        // say so, so requireRole answers 503 rather than "Sign in first" (next-auth would
+        // otherwise swallow the error and return a session without a user).
+        if (isDbUnavailable(err)) return { expires: session.expires, dbUnavailable: true } as typeof session;
+        throw err;
+      }
       if (!live) return { expires: session.expires } as typeof session;
       session.user = {
         id: token.uid as number,

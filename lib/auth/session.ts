@@ -9,6 +9,10 @@ export type { SessionUser };
 
 export async function currentUser(): Promise<SessionUser | null> {
   const session = await getServerSession(authOptions);
+  // Set by the session callback when the database could not check the session (lib/auth/options.ts).
+  if ((session as { dbUnavailable?: boolean } | null)?.dbUnavailable) {
+    throw new ApiError(503, "The database is not reachable right now; try again shortly.");
+  }
   return (session?.user as SessionUser | undefined) ?? null;
 }
 
