@@ -11,6 +11,7 @@
 // Every write locks the order row first, then the briefing row, writes an audit row and a
 // board event ("briefing") in the same transaction.
 import type { Knex } from "knex";
+import { completionTooEarly, emergencyRoleIssues, RESCUE_CODES, type BriefingFacts } from "@/lib/briefing/checks";
 import { ApiError } from "@/lib/api/http";
 import { audit, type Actor } from "@/lib/data/audit";
 import { voltageLabel } from "@/lib/orders/voltage";
@@ -446,6 +447,24 @@ function assertOpen(order: OrderFacts) {
   if (!EDITABLE_STATUSES.has(order.status)) throw new ApiError(409, `${order.number} is ${order.status}; its briefing is closed.`, { reason: "closed" });
 }
 
+/** Rescue training valid on the work day, and names, for the crew of a briefing (issue 18). */
+async function briefingFacts(trx: Knex.Transaction, l: Locked): Promise<BriefingFacts> {
+  const ids = l.crew.map((c) => c.workerId);
+  const rows = ids.length
+    ? await trx("credentials as c")
+        .join("qualification_types as q", "q.id", "c.qualification_type_id")
+        .whereIn("c.worker_id", ids)
+        .where("c.status", "current")
+        .whereIn("q.code", [RESCUE_CODES.climb, RESCUE_CODES.aerial])
+        .where((w) => w.whereNull("c.expires_on").orWhere("c.expires_on", ">=", l.order.workDate))
+        .where("c.issued_on", "<=", l.order.workDate)
+        .select("c.worker_id", "q.code")
+    : [];
+  const rescueTraining = new Map<number, Set<string>>();
+  for (const r of rows) rescueTraining.set(Number(r.worker_id), (rescueTraining.get(Number(r.worker_id)) ?? new Set()).add(String(r.code)));
+  return { ruleType: l.order.ruleType, rescueTraining, names: new Map(l.crew.map((c) => [c.workerId, c.name])) };
+}
+
 /** Save a draft or complete the current round. */
 export async function saveBriefing(
   db: Knex,
@@ -465,7 +484,12 @@ export async function saveBriefing(
     const data = cleanData(input.data, l.crew);
     await assertPhotos(trx, user, orderId, data);
     if (input.action === "complete") {
-      const issues = completionIssues(data, l.crew.flatMap((c) => c.positions.map((p) => ({ workerId: c.workerId, position: p }))));
+      const seats = l.crew.flatMap((c) => c.positions.map((p) => ({ workerId: c.workerId, position: p })));
+      const issues = completionIssues(data, seats);
+      // Issue 18: a trained rescuer, a caller on the ground, and not before the evening before.
+      issues.push(...emergencyRoleIssues(data.emergency, seats, await briefingFacts(trx, l)));
+      const early = completionTooEarly(Date.now(), l.order.workDate, l.order.timezone);
+      if (early) issues.push({ field: "action", message: early });
       if (issues.length) throw new ApiError(422, `Not complete: ${issues[0].message}.`, { issues });
     }
     const now = new Date();

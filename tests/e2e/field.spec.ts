@@ -5,6 +5,7 @@ import { extractText, getDocumentProxy } from "unpdf";
 import { dbConfig } from "../../knexfile";
 import { FIELD_ACCOUNTS } from "../../db/demo/field-accounts";
 import { demo } from "./helpers";
+import { epochToZonedWallTime, zonedWallTimeToEpoch } from "../../lib/rules/time";
 
 // The field view on a phone (390 px): My week, the job briefing with the gear and pole checks,
 // and the hold when a pole fails. Demo scenario: WO-26-0101 (North, tomorrow) is led by Marcus
@@ -12,6 +13,9 @@ import { demo } from "./helpers";
 // the ground; each has a sign-in (db/seeds/02_field_users.ts). The seed leaves the crew as
 // "draft" (not sent), so the test marks Marcus's assignment sent first, as Send crews would;
 // other specs do not touch WO-26-0101, and this one puts it back as it found it.
+// A briefing is completed at the earliest from 18:00 the evening before the job (issue 18), so
+// for this spec the order runs today (same wall-clock times on the yard's clock) and is put
+// back on its own day afterwards.
 
 const ORDER = "WO-26-0101";
 const PHONE = { width: 390, height: 844 };
@@ -78,11 +82,23 @@ test.beforeAll(async () => {
   db = knex(dbConfig());
   const o = await db("work_orders").where({ number: ORDER }).first();
   orderId = o.id;
-  workDate = o.work_date;
+  const tz = "America/Chicago"; // North Yard (IANA zone)
+  const today = new Intl.DateTimeFormat("en-CA", { timeZone: tz }).format(new Date());
+  const moved = (at: Date) => new Date(zonedWallTimeToEpoch(`${today}T${epochToZonedWallTime(new Date(at).getTime(), tz).slice(11, 16)}`, tz));
+  await db("work_orders").where({ id: orderId }).update({ work_date: today, start_at: moved(o.start_at), end_at: moved(o.end_at) });
+  workDate = today;
   const marcus = await db("workers").where({ employee_no: "CP-1001" }).first("id");
   const a = await db("assignments").where({ work_order_id: orderId, worker_id: marcus.id }).whereNotNull("holds_position").first();
   saved = {
-    order: { status: o.status, hold_reason: o.hold_reason, briefing_state: o.briefing_state, actual_start_at: o.actual_start_at },
+    order: {
+      status: o.status,
+      hold_reason: o.hold_reason,
+      briefing_state: o.briefing_state,
+      actual_start_at: o.actual_start_at,
+      work_date: o.work_date,
+      start_at: o.start_at,
+      end_at: o.end_at,
+    },
     assignment: { id: a.id, status: a.status, sent_at: a.sent_at, responded_at: a.responded_at, response_channel: a.response_channel },
   };
   await resetOrder();
@@ -155,7 +171,7 @@ test("the crew lead completes the briefing, each member acknowledges from their 
   const board = await browser.newContext({ viewport: { width: 1440, height: 1000 } });
   const bp = await board.newPage();
   await signInAs(bp, demo("dispatcher").email, demo("dispatcher").password);
-  await bp.goto("/board?yard=NOR");
+  await bp.goto(`/board?yard=NOR&date=${workDate}`);
   await expect(bp.getByTestId(`order-${ORDER}`)).toContainText("Briefed");
   await board.close();
 
@@ -199,7 +215,7 @@ test("a failed ground-line check puts the order on hold; dispatch's board shows 
   const board = await browser.newContext({ viewport: { width: 1440, height: 1000 } });
   const bp = await board.newPage();
   await signInAs(bp, demo("dispatcher").email, demo("dispatcher").password);
-  await bp.goto("/board?yard=NOR");
+  await bp.goto(`/board?yard=NOR&date=${workDate}`);
   await expect(bp.getByTestId(`order-${ORDER}`)).toContainText("On hold");
   await expect(bp.getByTestId(`order-${ORDER}`)).toContainText("ground line");
   await board.close();

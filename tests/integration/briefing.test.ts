@@ -76,8 +76,10 @@ const gear = (climbing: boolean, testedOn: string): GearCheckValues => ({
 
 beforeAll(async () => {
   for (const no of ["CP-1001", "CP-1008", "CP-1013", "CP-1021"]) ids[no] = (await workerByNo(db, no)).id;
-  orderA = await makeOrder(db, { offsetDays: 52, positions: ["lead", "climber", "observer"] });
-  orderB = await makeOrder(db, { offsetDays: 53, positions: ["lead", "climber", "observer", "ground"] });
+  // Today, in the evening: a briefing is completed at the earliest from 18:00 the evening before
+  // the job (issue 18), so orders days ahead could not be completed here.
+  orderA = await makeOrder(db, { offsetDays: 0, positions: ["lead", "climber", "observer"], start: "19:00", end: "21:00" });
+  orderB = await makeOrder(db, { offsetDays: 0, positions: ["lead", "climber", "observer", "ground"], start: "21:30", end: "23:30" });
   await crew(orderA, { lead: "CP-1001", climber: "CP-1008", observer: "CP-1013" });
   await crew(orderB, { lead: "CP-1001", climber: "CP-1008", observer: "CP-1013", ground: "CP-1021" });
   lead = await signedIn(MARCUS.email, MARCUS.password);
@@ -89,6 +91,9 @@ beforeAll(async () => {
 afterAll(async () => {
   const numbers = [orderA?.number, orderB?.number].filter(Boolean) as string[];
   for (const n of numbers) await db("notifications").where({ kind: "hold" }).where("body", "like", `%${n}%`).delete();
+  // Photos uploaded here point at the orders (files.work_order_id): let go of them first.
+  const made = [orderA?.id, orderB?.id].filter(Boolean) as number[];
+  if (made.length) await db("files").whereIn("work_order_id", made).update({ work_order_id: null });
   await removeMadeOrders(db);
   await db.destroy();
 });

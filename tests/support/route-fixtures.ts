@@ -129,7 +129,11 @@ export async function buildFixtures(db: Knex, opts: { firstOffset?: number } = {
     const o = toSeat(await makeOrder(db, { offsetDays: nextOffset(), positions: ["lead"], workType: "pole_climb" }));
     await put(o, "lead", Number(marcusRow.id), "sent");
     if (state === "briefed" || state === "acked") {
-      await must("complete briefing", lead.json(`/api/briefings/${o.orderId}`, "PUT", { action: "complete", version: 0, data: briefingData() }));
+      // The route completes a briefing only from 18:00 the evening before the job (issue 18);
+      // this order is days ahead, so the lead saves the draft through the route and the
+      // fixture marks the round complete, as the route would at that hour.
+      await must("save briefing", lead.json(`/api/briefings/${o.orderId}`, "PUT", { action: "save", version: 0, data: briefingData() }));
+      await db("briefings").where({ work_order_id: o.orderId, round: 1 }).update({ state: "briefed", completed_at: new Date() });
     }
     if (state === "acked") {
       const gear = { result: "ok", testedOn: o.day };

@@ -24,6 +24,7 @@ import {
   type BriefingFormValues,
 } from "@/lib/validation/briefing";
 import { PoleCite, Section } from "./sheet";
+import { earliestCompletion, fmtEarliest } from "@/lib/briefing/checks";
 
 export type ScreenView = BriefingView & { mode: "lead" | "crew" | "viewer"; me: number | null };
 
@@ -455,6 +456,12 @@ export function BriefingEditor({ view, onChange }: { view: ScreenView; onChange:
             <FormAlert tone={msg.tone}>{msg.text}</FormAlert>
           </div>
         )}
+        <p className="text-xs text-ink-700" data-testid="briefing-window">
+          {/* Issue 18: completed at the earliest the evening before the job, on the yard's clock. */}
+          A briefing is about the day&apos;s conditions: complete it from{" "}
+          <strong>{fmtEarliest(earliestCompletion(view.order.workDate, view.order.timezone), view.order.timezone)}</strong> (18:00 the evening
+          before the job) at the earliest. Save a draft before then.
+        </p>
         <div className="flex flex-wrap gap-2">
           <button type="button" className="btn-quiet min-h-11 flex-1 sm:flex-none" disabled={busy !== null} onClick={handleSubmit((d) => send("save", d), invalid)}>
             {busy === "save" ? "Saving…" : "Save draft"}
