@@ -16,9 +16,14 @@
 import { RULES, SnapshotIndex } from "@/lib/rules/engine";
 import { energizedAtLeast, ENERGIZED_WORK_KV } from "@/lib/rules/common";
 import { orderLastDay } from "@/lib/rules/snapshot-index";
-import type { Assignment, DaySnapshot, Finding, Policy, Position, RuleCode, WorkOrder } from "@/lib/rules/types";
+import { requiredLicenceOf } from "@/lib/rules/equipment";
+import { EquipmentIndex } from "@/lib/rules/equipment-index";
+import type { Assignment, DaySnapshot, EquipmentAssignment, Finding, Licence, Policy, Position, RuleCode, WorkOrder } from "@/lib/rules/types";
 
-export const POSITION_RULES: RuleCode[] = ["CLIMB_CERT", "QUALIFIED", "OPERATOR_CERT"];
+// RUBBER_GOODS is per worker too: a climber, aerial or lead seat on energized work needs gloves
+// rated for the order's voltage and in test through its last day (issue 16), so Fill never
+// proposes someone without them when gear is tracked.
+export const POSITION_RULES: RuleCode[] = ["CLIMB_CERT", "QUALIFIED", "OPERATOR_CERT", "RUBBER_GOODS"];
 export const TIME_RULES: RuleCode[] = ["UNAVAILABLE", "REST", "DOUBLE_BOOKED"];
 /** The order exclusions are reported in: the lasting reasons first. */
 export const PER_WORKER_RULES: RuleCode[] = [...POSITION_RULES, ...TIME_RULES];
@@ -35,9 +40,11 @@ export function isBlock(f: Finding, policy: Policy): boolean {
  * Cache key parts of an order: what the position rules read (credentials must hold from the
  * first day to the last, CREW-CHECK.md Corrections 6, so both days are in the key).
  */
-export function positionKey(order: WorkOrder, tz?: string): string {
+export function positionKey(order: WorkOrder, tz?: string, licence: Licence | null = order.driverLicence ?? "cdl_b"): string {
   const last = tz ? orderLastDay(order, tz) : order.endDate;
-  return `${order.startDate}|${last}|${energizedAtLeast(order, ENERGIZED_WORK_KV) ? 1 : 0}|${order.driverLicence ?? "cdl_b"}`;
+  // The voltage picks the glove class (RUBBER_GOODS); the licence is what the order's equipment
+  // needs when the day tracks equipment (OPERATOR_CERT), else the order's own.
+  return `${order.startDate}|${last}|${energizedAtLeast(order, ENERGIZED_WORK_KV) ? 1 : 0}|${licence ?? "none"}|${order.voltageKv}`;
 }
 export function timeKey(order: WorkOrder): string {
   return `${order.start}|${order.end}`;
@@ -59,14 +66,22 @@ export class EligibilityProbe {
   private readonly timeCache = new Map<string, Finding[]>();
   probes = 0;
 
+  private readonly equipment: EquipmentIndex;
+  private readonly timezone: string;
+
   constructor(snapshot: DaySnapshot, orders: readonly WorkOrder[]) {
     const copies: WorkOrder[] = [];
+    this.timezone = snapshot.timezone;
+    this.equipment = new EquipmentIndex(snapshot);
+    // A position copy carries its order's equipment, so the driver's licence reads the same.
+    const copyEquipment: EquipmentAssignment[] = [];
     for (const o of orders) {
-      const pk = positionKey(o, snapshot.timezone);
+      const pk = this.keyOf(o);
       if (!this.posOrder.has(pk)) {
         const copy = { ...o, id: `\u0000probe:p:${this.posOrder.size}` };
         this.posOrder.set(pk, copy);
         copies.push(copy);
+        for (const e of this.equipment.of(o.id)) copyEquipment.push({ workOrderId: copy.id, equipmentId: e.id });
       }
       const tk = timeKey(o);
       if (!this.timeOrder.has(tk)) {
@@ -75,7 +90,16 @@ export class EligibilityProbe {
         copies.push(copy);
       }
     }
-    this.ix = new SnapshotIndex({ ...snapshot, workOrders: [...snapshot.workOrders, ...copies] });
+    this.ix = new SnapshotIndex({
+      ...snapshot,
+      workOrders: [...snapshot.workOrders, ...copies],
+      ...(snapshot.equipment !== undefined ? { equipmentAssignments: [...(snapshot.equipmentAssignments ?? []), ...copyEquipment] } : {}),
+    });
+  }
+
+  /** The position-cache key of an order (its dates, energized, voltage and the driver's licence it needs). */
+  keyOf(order: WorkOrder): string {
+    return positionKey(order, this.timezone, requiredLicenceOf(order, this.equipment));
   }
 
   private run(checks: typeof RULES, order: WorkOrder, a: Assignment, keep: (f: Finding) => boolean): Finding[] {
@@ -98,7 +122,7 @@ export class EligibilityProbe {
   }
 
   /** Blocks of CLIMB_CERT, QUALIFIED and OPERATOR_CERT for the worker alone in the position on an order like this one. */
-  positionBlocks(workerId: string, order: WorkOrder, position: Position, key = positionKey(order, this.ix.timezone)): Finding[] {
+  positionBlocks(workerId: string, order: WorkOrder, position: Position, key = this.keyOf(order)): Finding[] {
     const k = `${workerId}|${position}|${key}`;
     let hit = this.posCache.get(k);
     if (hit) return hit;

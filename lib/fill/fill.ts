@@ -45,7 +45,7 @@ import { findingsForOrders, SnapshotIndex } from "@/lib/rules/engine";
 import { energizedAtLeast, ENERGIZED_WORK_KV, HIGH_VOLTAGE_KV, isClimbingWork, isJourneyLevel, onOrNearAbove } from "@/lib/rules/common";
 import { twoWorkerRuleApplies } from "@/lib/rules/crew-min";
 import type { Assignment, Finding, Position, RuleCode, Worker, WorkOrder } from "@/lib/rules/types";
-import { EligibilityProbe, exclusionOf, positionKey, timeKey } from "./eligibility";
+import { EligibilityProbe, exclusionOf, timeKey } from "./eligibility";
 import { columns, GrowingLp, Lp, solveLp, type SolveOutcome } from "./highs";
 import { DOUBLE_PENALTY, overtimeTenths, placementCost, priorityOf, staffValues, TOGETHER_BONUS } from "./objective";
 import {
@@ -171,7 +171,7 @@ export async function fill(problem: FillProblem, settingsIn: Partial<FillSetting
     });
   }
   const ctxById = new Map(ctxs.map((c) => [c.fo.id, c]));
-  const posKeys = ctxs.map((c) => [...c.open.keys()].map((p) => [p, `${p}|${positionKey(c.order, ix.timezone)}`] as const));
+  const posKeys = ctxs.map((c) => [...c.open.keys()].map((p) => [p, `${p}|${probe.keyOf(c.order)}`] as const));
   const timeKeys = ctxs.map((c) => timeKey(c.order));
   let eligiblePairs = 0;
   for (const w of pool) {

@@ -11,6 +11,7 @@ export type Category =
   | "not_qualified"
   | "no_operator"
   | "no_licence"
+  | "no_rubber_goods"
   | "short_of_rest"
   | "leave"
   | "training"
@@ -26,6 +27,7 @@ const PHRASES: Record<Category, [string, string]> = {
   not_qualified: ["not qualified for the position", "not qualified for the position"],
   no_operator: ["without an equipment operator credential", "without an equipment operator credential"],
   no_licence: ["without the CDL the truck needs", "without the CDL the truck needs"],
+  no_rubber_goods: ["without rubber gloves rated and in test for the voltage", "without rubber gloves rated and in test for the voltage"],
   short_of_rest: ["short of rest", "short of rest"],
   leave: ["on leave", "on leave"],
   training: ["in training", "in training"],
@@ -43,6 +45,8 @@ export function categoryOf(f: Finding, position: Position, worker: Worker | unde
       return position === "lead" ? "cannot_lead" : position === "climber" ? "cannot_climb" : "not_qualified";
     case "OPERATOR_CERT":
       return position === "driver" ? "no_licence" : "no_operator";
+    case "RUBBER_GOODS":
+      return "no_rubber_goods";
     case "REST":
       return "short_of_rest";
     case "DOUBLE_BOOKED":

@@ -9,6 +9,7 @@
 
 import { dateWords, energizedAtLeast, ENERGIZED_WORK_KV, finding, type RuleCheck } from "./common";
 import { addMonths } from "./gear";
+import type { EquipmentIndex } from "./equipment-index";
 import type { SnapshotIndex } from "./snapshot-index";
 import type { Equipment, EquipmentKind, Finding, Licence, WorkOrder, WorkType } from "./types";
 
@@ -117,8 +118,13 @@ export function highestLicence(pieces: readonly Pick<Equipment, "licence">[]): L
  * the order's own driverLicence (default class B), as before equipment was tracked.
  */
 export function requiredDriverLicence(order: WorkOrder, ix: SnapshotIndex): Licence | null {
-  if (ix.equipment.tracked) {
-    const pieces = ix.equipment.of(order.id);
+  return requiredLicenceOf(order, ix.equipment);
+}
+
+/** requiredDriverLicence from an equipment index alone (Fill's probes use it). */
+export function requiredLicenceOf(order: WorkOrder, equipment: EquipmentIndex): Licence | null {
+  if (equipment.tracked) {
+    const pieces = equipment.of(order.id);
     if (pieces.length > 0) return highestLicence(pieces);
   }
   return order.driverLicence ?? "cdl_b";
