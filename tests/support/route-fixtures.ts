@@ -31,6 +31,7 @@ const TABLES = [
   "inbound_messages",
   "notifications",
   "equipment",
+  "rubber_goods",
 ] as const;
 
 export interface Built {
@@ -345,6 +346,8 @@ export async function buildFixtures(db: Knex, opts: { firstOffset?: number } = {
     await above("notifications").where({ kind: "hold" }).delete();
     await above("inbound_messages").delete();
     await db("inbound_messages").whereIn("assignment_id", db("assignments").whereIn("work_order_id", orders.clone()).select("id")).update({ assignment_id: null });
+    // Rubber goods the route table's samples recorded (issue 16); lift plans go with their orders.
+    await above("rubber_goods").delete();
     await above("credentials").update({ supersedes_id: null });
     await above("credentials").delete();
     await above("time_records").delete();

@@ -1007,7 +1007,8 @@ export const ROUTES: RouteEntry[] = [
     status: 200,
     sample: async (fx, caller) => {
       const workerId = caller === "lineworker" ? fx.marcus.workerId : fx.worker.id;
-      const [id] = await fx.db("rubber_goods").insert({ organisation_id: fx.orgId, worker_id: workerId, kind: "rubber_gloves", class: "2", serial: `RM-G-${fx.uniq()}`, tested_on: fx.pastDay() });
+      // Retired at once: a sample on Marcus's record never counts for him on a board.
+      const [id] = await fx.db("rubber_goods").insert({ organisation_id: fx.orgId, worker_id: workerId, kind: "rubber_gloves", class: "2", serial: `RM-G-${fx.uniq()}`, tested_on: fx.pastDay(), retired_on: fx.pastDay() });
       return { path: `/api/gear/${id}` };
     },
   },
