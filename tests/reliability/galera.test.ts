@@ -245,11 +245,22 @@ async function health(c: Client) {
   }
 }
 
+/**
+ * Every array in canonical order. Two nodes may hand back the rows of one query without an
+ * ORDER BY in different orders (each node's own optimiser statistics), and the board lists
+ * findings in the order it gathered them: equal boards, compared as sets.
+ */
+function canonical(v: unknown): unknown {
+  if (Array.isArray(v)) return v.map(canonical).sort((a, b) => (JSON.stringify(a) < JSON.stringify(b) ? -1 : JSON.stringify(a) > JSON.stringify(b) ? 1 : 0));
+  if (v && typeof v === "object") return Object.fromEntries(Object.entries(v).map(([k, x]) => [k, canonical(x)]));
+  return v;
+}
+
 async function boardOn(c: Client, day: string) {
   const r = await c.json(`/api/board?yard=NOR&date=${day}`);
   if (r.status !== 200) return { status: r.status };
   const { generatedAt: _g, ...rest } = r.body;
-  return rest;
+  return canonical(rest);
 }
 
 async function synced(port: number) {
