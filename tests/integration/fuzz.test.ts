@@ -196,7 +196,9 @@ const KEY_TABLES = ["workers", "assignments", "credentials", "work_orders"] as c
 async function checksum(): Promise<Record<string, string>> {
   const out: Record<string, string> = {};
   for (const t of KEY_TABLES) {
-    const rows = await db(t).where("id", "<=", before[t]).orderBy("id");
+    // booking_seq is a counter that a successful placement, leave or worked-time write bumps on
+    // an existing worker (the Galera certification key, issue 17), not stored content.
+    const rows = (await db(t).where("id", "<=", before[t]).orderBy("id")).map(({ booking_seq: _seq, ...r }: Record<string, unknown>) => r);
     out[t] = `${rows.length}:${createHash("sha256").update(JSON.stringify(rows)).digest("hex")}`;
   }
   const policies = await db("policies").whereIn("organisation_id", orgIdsBefore).orderBy("organisation_id");
