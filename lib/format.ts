@@ -22,6 +22,19 @@ export function fmtDateTime(iso: string | Date, timezone: string) {
   }).format(typeof iso === "string" ? new Date(iso) : iso);
 }
 
+/** "Dec 3, 14:05 CST": fmtDateTime with the zone's abbreviation, for lists that mix people and yards. */
+export function fmtDateTimeZone(iso: string | Date, timezone: string) {
+  return new Intl.DateTimeFormat("en-US", {
+    timeZone: timezone,
+    month: "short",
+    day: "numeric",
+    hour: "2-digit",
+    minute: "2-digit",
+    hourCycle: "h23",
+    timeZoneName: "short",
+  }).format(typeof iso === "string" ? new Date(iso) : iso);
+}
+
 /** Whole days from `from` to `to` (both YYYY-MM-DD). */
 export function daysBetween(from: string, to: string) {
   const a = Date.UTC(+from.slice(0, 4), +from.slice(5, 7) - 1, +from.slice(8, 10));

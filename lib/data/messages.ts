@@ -37,6 +37,9 @@ function outboundQuery(db: Knex, organisationId: number) {
     .leftJoin("yards as y", "y.id", "w.yard_id")
     .leftJoin("assignments as a", "a.id", "n.assignment_id")
     .leftJoin("work_orders as o", "o.id", "a.work_order_id")
+    // Issue 18: a row with no worker (a dispatcher's copy) reads in its order's yard's zone,
+    // else the organisation's first yard's, never UTC.
+    .leftJoin("yards as oy", "oy.id", "o.yard_id")
     .where("n.organisation_id", organisationId)
     .select(
       "n.id",
@@ -56,6 +59,8 @@ function outboundQuery(db: Knex, organisationId: number) {
       "w.first_name",
       "w.last_name",
       "y.timezone",
+      "oy.timezone as order_timezone",
+      db.raw("(SELECT y2.timezone FROM yards y2 WHERE y2.organisation_id = ? ORDER BY y2.id LIMIT 1) AS org_timezone", [organisationId]),
       "o.number",
       "o.work_date",
     );
@@ -67,6 +72,7 @@ function inboundQuery(db: Knex, organisationId: number) {
     .leftJoin("yards as y", "y.id", "w.yard_id")
     .leftJoin("assignments as a", "a.id", "i.assignment_id")
     .leftJoin("work_orders as o", "o.id", "a.work_order_id")
+    .leftJoin("yards as oy", "oy.id", "o.yard_id")
     .where("i.organisation_id", organisationId)
     .select(
       "i.id",
@@ -80,6 +86,8 @@ function inboundQuery(db: Knex, organisationId: number) {
       "w.first_name",
       "w.last_name",
       "y.timezone",
+      "oy.timezone as order_timezone",
+      db.raw("(SELECT y2.timezone FROM yards y2 WHERE y2.organisation_id = ? ORDER BY y2.id LIMIT 1) AS org_timezone", [organisationId]),
       "o.number",
       "o.work_date",
     );
@@ -108,7 +116,7 @@ function fromOutbound(r: Row): MessageRow {
     providerId: r.provider_id,
     orderNumber: r.number ?? null,
     workDate: r.work_date ?? null,
-    timezone: r.timezone ?? "UTC",
+    timezone: r.timezone ?? r.order_timezone ?? r.org_timezone ?? "UTC",
     reply: null,
     handled: true,
   };
@@ -135,7 +143,7 @@ function fromInbound(r: Row): MessageRow {
     providerId: null,
     orderNumber: r.number ?? null,
     workDate: r.work_date ?? null,
-    timezone: r.timezone ?? "UTC",
+    timezone: r.timezone ?? r.order_timezone ?? r.org_timezone ?? "UTC",
     reply: r.reply_body ?? null,
     handled: Boolean(r.handled),
   };
@@ -180,7 +188,7 @@ export async function unmatchedReplies(db: Knex, organisationId: number) {
     .where((w) => w.where("i.organisation_id", organisationId).orWhereNull("i.organisation_id"))
     .orderBy("i.id", "desc")
     .limit(100)
-    .select("i.id", "i.from_phone", "i.body", "i.outcome", "i.handled", "i.reply_body", "i.created_at", "i.worker_id", "w.first_name", "w.last_name", "y.timezone", "o.number", "o.work_date");
+    .select("i.id", "i.from_phone", "i.body", "i.outcome", "i.handled", "i.reply_body", "i.created_at", "i.worker_id", "w.first_name", "w.last_name", "y.timezone", "o.number", "o.work_date", db.raw("(SELECT y2.timezone FROM yards y2 WHERE y2.organisation_id = ? ORDER BY y2.id LIMIT 1) AS org_timezone", [organisationId]));
   return rows.map(fromInbound);
 }
 

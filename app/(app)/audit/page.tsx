@@ -2,79 +2,149 @@ import { requirePageRole } from "@/lib/auth/session";
 import { db } from "@/lib/db";
 import { listAudit } from "@/lib/data/audit";
 import { PageHeader } from "@/components/status";
+import { fmtDateTimeZone } from "@/lib/format";
+import { actionLabel, auditSentence } from "@/lib/labels/audit";
+import { zonedWallTimeToEpoch } from "@/lib/rules/time";
+import { addDays } from "@/lib/data/yards";
 
 export const metadata = { title: "Audit" };
 
-export default async function AuditPage({ searchParams }: { searchParams: Promise<{ action?: string; entity?: string }> }) {
+const DAY = /^\d{4}-\d{2}-\d{2}$/;
+
+// Issue 18: plain sentences, times in the yard's zone with its abbreviation, filters by date,
+// person, order and action; the raw detail stays under "details".
+export default async function AuditPage({
+  searchParams,
+}: {
+  searchParams: Promise<{ action?: string; entity?: string; actor?: string; order?: string; from?: string; to?: string }>;
+}) {
   const user = await requirePageRole("supervisor", "admin");
   const sp = await searchParams;
   const action = sp.action?.slice(0, 60) || undefined;
   const entity = sp.entity?.slice(0, 40) || undefined;
-  const rows = await listAudit(db(), { organisationId: user.organisationId, action, entity, limit: 300 });
-  const actions = await db()("audit_log").where({ organisation_id: user.organisationId }).distinct("action").orderBy("action");
+  const actor = /^\d{1,9}$/.test(sp.actor ?? "") ? Number(sp.actor) : undefined;
+  const order = sp.order?.trim().slice(0, 40) || undefined;
+  const fromDay = DAY.test(sp.from ?? "") ? sp.from : undefined;
+  const toDay = DAY.test(sp.to ?? "") ? sp.to : undefined;
+  const yard = await db()("yards").where({ organisation_id: user.organisationId }).orderBy("id").first("timezone", "name");
+  const tz: string = yard?.timezone ?? "UTC";
+  const safeEpoch = (day: string | undefined) => {
+    if (!day) return undefined;
+    try {
+      return new Date(zonedWallTimeToEpoch(`${day}T00:00`, tz));
+    } catch {
+      return undefined;
+    }
+  };
+  const rowsAll = await listAudit(db(), {
+    organisationId: user.organisationId,
+    action,
+    entity,
+    actorUserId: actor,
+    from: safeEpoch(fromDay),
+    to: safeEpoch(toDay ? addDays(toDay, 1) : undefined),
+    limit: order ? 1000 : 300,
+  });
+  // An order's rows: its own (work_order id) and those whose detail names its number.
+  let orderId: number | null = null;
+  if (order) {
+    const o = await db()("work_orders").where({ organisation_id: user.organisationId, number: order }).first("id");
+    orderId = o ? Number(o.id) : null;
+  }
+  const rows = order
+    ? rowsAll.filter((r: Record<string, any>) => (r.entity === "work_order" && orderId !== null && Number(r.entity_id) === orderId) || JSON.stringify(r.detail ?? "").includes(order))
+    : rowsAll;
+  const orderIds = [...new Set(rows.filter((r: Record<string, any>) => r.entity === "work_order" && r.entity_id).map((r: Record<string, any>) => Number(r.entity_id)))];
+  const numbers = new Map<number, string>(
+    orderIds.length
+      ? (await db()("work_orders").where({ organisation_id: user.organisationId }).whereIn("id", orderIds).select("id", "number")).map((o: { id: number; number: string }) => [Number(o.id), o.number])
+      : [],
+  );
+  const [actions, people] = await Promise.all([
+    db()("audit_log").where({ organisation_id: user.organisationId }).distinct("action").orderBy("action"),
+    db()("users").where({ organisation_id: user.organisationId }).orderBy("name").select("id", "name"),
+  ]);
   return (
     <>
       <PageHeader eyebrow="Audit" title="Who did what" />
-      <form className="mb-4 flex flex-wrap items-end gap-3" method="get">
+      <form className="mb-4 grid gap-3 sm:flex sm:flex-wrap sm:items-end" method="get" aria-label="Filter the audit log">
+        <div>
+          <label className="label" htmlFor="from">
+            From
+          </label>
+          <input id="from" name="from" type="date" defaultValue={fromDay ?? ""} className="field" />
+        </div>
+        <div>
+          <label className="label" htmlFor="to">
+            To
+          </label>
+          <input id="to" name="to" type="date" defaultValue={toDay ?? ""} className="field" />
+        </div>
+        <div>
+          <label className="label" htmlFor="actor">
+            Person
+          </label>
+          <select id="actor" name="actor" defaultValue={actor ? String(actor) : ""} className="field">
+            <option value="">Everyone</option>
+            {people.map((p: { id: number; name: string }) => (
+              <option key={p.id} value={p.id}>
+                {p.name}
+              </option>
+            ))}
+          </select>
+        </div>
+        <div>
+          <label className="label" htmlFor="order">
+            Order
+          </label>
+          <input id="order" name="order" placeholder="WO-26-0101" defaultValue={order ?? ""} className="field" />
+        </div>
         <div>
           <label className="label" htmlFor="action">
             Action
           </label>
           <select id="action" name="action" defaultValue={action ?? ""} className="field">
             <option value="">All actions</option>
-            {actions.map((a) => (
+            {actions.map((a: { action: string }) => (
               <option key={a.action} value={a.action}>
-                {a.action}
+                {actionLabel(a.action)}
               </option>
             ))}
           </select>
         </div>
-        <div>
-          <label className="label" htmlFor="entity">
-            Record
-          </label>
-          <select id="entity" name="entity" defaultValue={entity ?? ""} className="field">
-            <option value="">All records</option>
-            {["assignment", "override", "work_order", "credential", "worker", "policy", "send"].map((e) => (
-              <option key={e} value={e}>
-                {e}
-              </option>
-            ))}
-          </select>
-        </div>
+        {entity && <input type="hidden" name="entity" value={entity} />}
         <button className="btn-quiet" type="submit">
           Filter
         </button>
       </form>
+      <p className="mb-2 text-xs text-ink-500">Times on {yard?.name ?? "the yard"}&apos;s clock.</p>
       <div className="card overflow-x-auto">
-        <table className="w-full text-left text-sm">
-          <thead className="bg-paper-200 text-xs uppercase text-ink-500">
+        <table className="w-full text-left text-sm" data-testid="audit-table">
+          <thead className="bg-paper-200 text-xs uppercase text-ink-700">
             <tr>
-              <th className="px-3 py-2">When (UTC)</th>
-              <th className="px-3 py-2">Who</th>
-              <th className="px-3 py-2">Action</th>
-              <th className="px-3 py-2">Record</th>
-              <th className="px-3 py-2">Detail</th>
+              <th className="px-3 py-2">When</th>
+              <th className="px-3 py-2">What happened</th>
             </tr>
           </thead>
           <tbody>
-            {rows.map((r) => (
-              <tr key={r.id} className="border-t border-rule align-top">
-                <td className="whitespace-nowrap px-3 py-2">{new Date(r.created_at).toISOString().slice(0, 16).replace("T", " ")}</td>
-                <td className="px-3 py-2">{r.actor_name ?? "system"}</td>
-                <td className="px-3 py-2 font-semibold">{r.action}</td>
+            {rows.map((r: Record<string, any>) => (
+              <tr key={r.id} className="border-t border-rule align-top" data-action={r.action}>
+                <td className="whitespace-nowrap px-3 py-2">{fmtDateTimeZone(new Date(r.created_at), tz)}</td>
                 <td className="px-3 py-2">
-                  {r.entity} {r.entity_id}
-                </td>
-                <td className="max-w-md break-words px-3 py-2 text-xs text-ink-700">
-                  {typeof r.detail === "string" ? r.detail : JSON.stringify(r.detail)}
+                  <p>{auditSentence({ ...(r as Record<string, never>), action: String(r.action), order_number: r.entity === "work_order" ? (numbers.get(Number(r.entity_id)) ?? null) : null })}</p>
+                  <details className="mt-0.5 text-xs text-ink-700">
+                    <summary className="cursor-pointer">details</summary>
+                    <p className="mt-1 break-words font-mono">
+                      {r.action} · {r.entity} {r.entity_id} · {typeof r.detail === "string" ? r.detail : JSON.stringify(r.detail)}
+                    </p>
+                  </details>
                 </td>
               </tr>
             ))}
             {rows.length === 0 && (
               <tr>
-                <td colSpan={5} className="px-3 py-6 text-center text-ink-500">
-                  Nothing recorded yet.
+                <td colSpan={2} className="px-3 py-6 text-center text-ink-500">
+                  Nothing recorded for these filters.
                 </td>
               </tr>
             )}

@@ -7,7 +7,7 @@ import { messagesFilterSchema } from "@/lib/validation/notify";
 import { fakesEnabled, mailboxUrl } from "@/lib/notify/config";
 import { formatPhone } from "@/lib/notify/messages";
 import { Badge, PageHeader } from "@/components/status";
-import { fmtDate, fmtDateTime } from "@/lib/format";
+import { fmtDate, fmtDateTimeZone } from "@/lib/format";
 import { AutoRefresh } from "./auto-refresh";
 import { HandledButton } from "./handled-button";
 import { ChannelLabel, KIND_LABEL, StateBadge } from "./ui";
@@ -83,7 +83,7 @@ export default async function MessagesPage({ searchParams }: { searchParams: Pro
               <li key={m.key} className="flex flex-wrap items-start justify-between gap-2 py-2 text-sm">
                 <div className="min-w-0 flex-1">
                   <p className="text-xs text-ink-500">
-                    {fmtDateTime(m.at, m.timezone)} ·{" "}
+                    {fmtDateTimeZone(m.at, m.timezone)} ·{" "}
                     {m.workerId ? (
                       <Link className="font-semibold text-info underline" href={`/messages/${m.workerId}`}>
                         {m.workerName}
@@ -184,7 +184,7 @@ export default async function MessagesPage({ searchParams }: { searchParams: Pro
                   <StateBadge m={m} />
                 </div>
                 <p className="mt-1 text-xs text-ink-500">
-                  {fmtDateTime(m.at, m.timezone)} ·{" "}
+                  {fmtDateTimeZone(m.at, m.timezone)} ·{" "}
                   {m.workerId ? (
                     <Link className="font-semibold text-info underline" href={`/messages/${m.workerId}`}>
                       {m.workerName}
@@ -223,7 +223,7 @@ export default async function MessagesPage({ searchParams }: { searchParams: Pro
               <tbody>
                 {rows.map((m) => (
                   <tr key={m.key} className="border-t border-rule align-top">
-                    <td className="whitespace-nowrap px-3 py-2 text-ink-700">{fmtDateTime(m.at, m.timezone)}</td>
+                    <td className="whitespace-nowrap px-3 py-2 text-ink-700">{fmtDateTimeZone(m.at, m.timezone)}</td>
                     <td className="px-3 py-2">
                       <ChannelLabel m={m} />
                     </td>

@@ -6,7 +6,7 @@ import { db } from "@/lib/db";
 import { workerThread } from "@/lib/data/messages";
 import { formatPhone } from "@/lib/notify/messages";
 import { Badge, PageHeader } from "@/components/status";
-import { CLASSIFICATION_LABEL, fmtDateTime } from "@/lib/format";
+import { CLASSIFICATION_LABEL, fmtDateTimeZone } from "@/lib/format";
 import { AutoRefresh } from "../auto-refresh";
 import { KIND_LABEL, StateBadge } from "../ui";
 
@@ -65,7 +65,7 @@ export default async function ThreadPage({ params }: { params: Promise<{ workerI
                 >
                   <p className="mb-1 flex flex-wrap items-center gap-x-2 gap-y-1 text-[11px] font-bold uppercase tracking-wide text-ink-500">
                     <span>{out ? (m.channel === "sms" ? "→ Text" : "→ E-mail") : "← Reply"}</span>
-                    <span className="font-semibold normal-case tracking-normal">{fmtDateTime(m.at, tz)}</span>
+                    <span className="font-semibold normal-case tracking-normal">{fmtDateTimeZone(m.at, tz)}</span>
                     {out && <span className="normal-case tracking-normal">{KIND_LABEL[m.kind] ?? m.kind}</span>}
                     {m.orderNumber && <span className="normal-case tracking-normal">{m.orderNumber}</span>}
                     <span className="normal-case tracking-normal">
