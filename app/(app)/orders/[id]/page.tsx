@@ -15,6 +15,7 @@ import { CREW_EXCEPTION_LABEL, STATUS_LABEL, STATUS_TONE } from "@/lib/orders/st
 import { floating, floatingToLocal, repeatFormFrom } from "@/lib/recurrence-core";
 import { OrderForm, type OrderFormShape } from "../order-form";
 import { OrderFigures } from "./figures";
+import { OrderFindings } from "./findings";
 
 export const metadata = { title: "Work order" };
 
@@ -95,6 +96,7 @@ export default async function OrderPage({ params, searchParams }: { params: Prom
         </p>
       )}
 
+      <OrderFindings organisationId={user.organisationId} orderId={order.id} />
       <section className="card mb-4 grid gap-4 p-4 md:grid-cols-[2fr_1fr]" aria-label="Summary">
         <div className="space-y-2">
           <div className="flex flex-wrap gap-1.5">
