@@ -47,7 +47,7 @@ import { twoWorkerRuleApplies } from "@/lib/rules/crew-min";
 import type { Assignment, Finding, Position, RuleCode, Worker, WorkOrder } from "@/lib/rules/types";
 import { EligibilityProbe, exclusionOf, timeKey } from "./eligibility";
 import { columns, GrowingLp, Lp, solveLp, type SolveOutcome } from "./highs";
-import { DOUBLE_PENALTY, overtimeTenths, placementCost, priorityOf, staffValues, TOGETHER_BONUS } from "./objective";
+import { DOUBLE_PENALTY, leadSeatCost, overtimeTenths, placementCost, priorityOf, staffValues, TOGETHER_BONUS } from "./objective";
 import {
   DEFAULT_SETTINGS,
   type Candidate,
@@ -241,6 +241,12 @@ export async function fill(problem: FillProblem, settingsIn: Partial<FillSetting
     if (v === undefined) costCache.set(k, (v = placementCost(poolById.get(w)!, c.fo, problem.extraCost)));
     return v;
   };
+  /** A seat's cost: the placement's, plus the lead seat's preference for crew leads (issue 18). */
+  const seatCostOf = (w: string, c: Ctx, p: Position) => {
+    if (p !== "lead") return costOf(w, c);
+    const rw = ix.workers.get(w);
+    return costOf(w, c) + leadSeatCost(poolById.get(w)!, c.order, (code) => (rw ? ix.holdsThrough(rw, code, c.order) : false));
+  };
 
   /** The whole model over `orders` (every eligible pair a column). */
   const build = (orders: Ctx[], opts: { disabled?: Set<Group>; force?: boolean; pairs?: boolean }): Built => {
@@ -311,8 +317,7 @@ export async function fill(problem: FillProblem, settingsIn: Partial<FillSetting
       const here = new Map<string, WV>();
       vars.set(o, here);
       for (const [w, ps] of c.cand) {
-        const cost = costOf(w, c);
-        const cols = ps.map((p) => col(X, 0, cost, groupIndex.get(p)!));
+        const cols = ps.map((p) => col(X, 0, seatCostOf(w, c, p), groupIndex.get(p)!));
         const v: WV = { pos: ps, cols, d: -1, person: null };
         here.set(w, v);
         const li = ps.indexOf("lead");
@@ -878,7 +883,7 @@ export async function fill(problem: FillProblem, settingsIn: Partial<FillSetting
       let l = sorted.get(g);
       if (!l) {
         const { ctx, p } = built.groups[g];
-        l = ctx.eligible.get(p)!.slice().sort((a, b) => costOf(a, ctx) - costOf(b, ctx) || cmpStr(a, b));
+        l = ctx.eligible.get(p)!.slice().sort((a, b) => seatCostOf(a, ctx, p) - seatCostOf(b, ctx, p) || cmpStr(a, b));
         sorted.set(g, l);
       }
       return l;
@@ -937,7 +942,7 @@ export async function fill(problem: FillProblem, settingsIn: Partial<FillSetting
     const pairs: Array<[number, number, string]> = []; // cost, group, worker
     built.groups.forEach((gr, g) => {
       if (heldY.get(built.y.get(gr.ctx.fo.id)!) !== 1) return;
-      for (const w of gr.ctx.eligible.get(gr.p)!) pairs.push([costOf(w, gr.ctx), g, w]);
+      for (const w of gr.ctx.eligible.get(gr.p)!) pairs.push([seatCostOf(w, gr.ctx, gr.p), g, w]);
     });
     pairs.sort((a, b) => a[0] - b[0] || a[1] - b[1] || cmpStr(a[2], b[2]));
     const left = built.groups.map((gr) => gr.ctx.open.get(gr.p)!.length);
@@ -1062,7 +1067,7 @@ export async function fill(problem: FillProblem, settingsIn: Partial<FillSetting
         const w = ws[i];
         if (!w) return;
         const fw = poolById.get(w)!;
-        cost += costOf(w, c);
+        cost += seatCostOf(w, c, p);
         proposals.push({ orderId: o, positionId, position: p, workerId: w, workerName: fw.name, reasons: reasonsFor(c, p, fw, list, needs) });
       });
     }
@@ -1095,6 +1100,22 @@ export async function fill(problem: FillProblem, settingsIn: Partial<FillSetting
     );
     out.push(w.yardId === c.fo.yardId ? "home yard" : `from ${w.yardCode ?? `yard ${w.yardId}`} (not the order's yard)`);
     const rw = ix.workers.get(w.id)!;
+    if (p === "lead") {
+      // Issue 18: why this person leads.
+      const leads = eligible.filter((x2) => x2.classification === "crew_lead").length;
+      out.push(
+        w.classification === "crew_lead"
+          ? "crew lead in the lead seat (crew leads are preferred for lead)"
+          : leads === 0
+            ? "no crew lead could take the lead seat, so a journey-level worker leads"
+            : "a crew lead was eligible but is needed elsewhere or would break a crew rule",
+      );
+      if (c.order.workType === "digger_derrick" && c.order.energized) {
+        const aid = ix.holdsThrough(rw, "first_aid_cpr", c.order);
+        const rescue = ix.holdsThrough(rw, "pole_top_rescue", c.order) || ix.holdsThrough(rw, "aerial_rescue", c.order);
+        out.push(aid && rescue ? "holds first aid/CPR and rescue training (preferred to lead energized derrick work)" : `leads without ${[aid ? "" : "first aid/CPR", rescue ? "" : "rescue training"].filter(Boolean).join(" or ")}: nobody better was free`);
+      }
+    }
     const mineSeats = crew.filter((a) => a.workerId === w.id).map((a) => a.position);
     if (mineSeats.length > 1) out.push(`also ${mineSeats.filter((x2) => x2 !== p).map((x2) => `the ${POSITION_WORD[x2]}`).join(" and ")} (the lead may double)`);
     // Credentials the crew rules count, named only where this person is one the count rests on.

@@ -19,6 +19,27 @@ export const OVERTIME_WEIGHT = 100; // per 0.1 h
 export const AWAY_WEIGHT = 10;
 export const TOGETHER_BONUS = 3;
 export const DOUBLE_PENALTY = 1;
+/**
+ * The lead seat (issue 18): someone who is not a crew lead costs as much as two hours of
+ * overtime, so a rested crew lead goes to the lead seat before a journeyman unless fairness is
+ * far apart; on energized digger-derrick work a lead without first aid/CPR, or without rescue
+ * training, costs half an hour more each (common practice: the person in charge can act first).
+ */
+export const LEAD_NOT_CREW_LEAD = 2000;
+export const LEAD_MISSING_AID = 500;
+
+export function leadSeatCost(
+  w: { classification: string },
+  order: { workType: string; energized: boolean },
+  holds: (code: string) => boolean,
+): number {
+  let c = w.classification === "crew_lead" ? 0 : LEAD_NOT_CREW_LEAD;
+  if (order.workType === "digger_derrick" && order.energized) {
+    if (!holds("first_aid_cpr")) c += LEAD_MISSING_AID;
+    if (!holds("pole_top_rescue") && !holds("aerial_rescue")) c += LEAD_MISSING_AID;
+  }
+  return c;
+}
 
 export function priorityOf(o: Pick<FillOrder, "priority">): number {
   const p = Math.round(o.priority);

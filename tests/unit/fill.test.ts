@@ -7,7 +7,7 @@ import fc from "fast-check";
 import munkres from "munkres-js";
 import { describe, expect, it } from "vitest";
 import { fill } from "@/lib/fill/fill";
-import { DOUBLE_PENALTY, placementCost, staffValues, TOGETHER_BONUS } from "@/lib/fill/objective";
+import { DOUBLE_PENALTY, leadSeatCost, placementCost, staffValues, TOGETHER_BONUS } from "@/lib/fill/objective";
 import { overtimeHours } from "@/lib/fill/overtime";
 import type { FillOrder, FillProblem, FillWorker } from "@/lib/fill/types";
 import { isJourneyLevel } from "@/lib/rules/common";
@@ -203,7 +203,16 @@ function objectiveOf(p: FillProblem, proposal: Map<string, Assignment[]>) {
   for (const [o, list] of proposal) {
     const order = p.orders.find((x) => x.id === o)!;
     staffing += values.get(o)!;
-    for (const a of list) cost += placementCost(byId.get(a.workerId)!, order, p.extraCost);
+    const ruleOrder = p.snapshot.workOrders.find((x) => x.id === o)!;
+    for (const a of list) {
+      cost += placementCost(byId.get(a.workerId)!, order, p.extraCost);
+      // The lead seat prefers crew leads (issue 18), and aid/rescue on energized derrick work.
+      if (a.position === "lead") {
+        const rw = p.snapshot.workers.find((x) => x.id === a.workerId)!;
+        const holds = (code: string) => rw.credentials.some((c) => c.type === code && (c.expiresOn === null || c.expiresOn >= ruleOrder.endDate));
+        cost += leadSeatCost(byId.get(a.workerId)!, ruleOrder, holds);
+      }
+    }
     const fresh = new Set(list.map((a) => a.workerId));
     cost += DOUBLE_PENALTY * (list.length - fresh.size); // the lead doubling
     const people = new Set([...order.seats.filter((s) => s.workerId).map((s) => s.workerId!), ...fresh]);
@@ -377,7 +386,7 @@ describe("fill: explanations", () => {
     expect(r.proposals).toHaveLength(1);
     // Fairness comes before the home yard: the lower-overtime worker from the other yard.
     expect(r.proposals[0].workerId).toBe("a");
-    expect(r.proposals[0].reasons).toEqual(["priority 1 order", "2.5 h overtime in 28 days (lowest eligible of 2)", "from MES (not the order's yard)"]);
+    expect(r.proposals[0].reasons).toEqual(["priority 1 order", "2.5 h overtime in 28 days (lowest eligible of 2)", "from MES (not the order's yard)", "crew lead in the lead seat (crew leads are preferred for lead)"]);
   });
 });
 
@@ -391,5 +400,36 @@ describe("overtime hours", () => {
       { start: at("07:00", "2027-04-06"), end: at("20:00", "2027-04-06") }, // the day itself: not counted
     ];
     expect(overtimeHours(recs, { day: DAY, timezone: TZ, regularHoursDay: 8 })).toBe(4.5);
+  });
+});
+
+describe("the lead seat prefers crew leads (issue 18)", () => {
+  // Common practice: the crew lead is the employee in charge who holds the job briefing
+  // (1910.269(c)(1)); a journeyman leads only when no rested crew lead is free.
+  it("a crew lead takes the lead seat over a journeyman with up to 2 h less overtime, and the reasons say why", async () => {
+    const workers: Worker[] = [
+      { id: "j", name: "Journey j", classification: "journeyman", credentials: [], unavailable: [], timeRecords: [] },
+      { id: "c", name: "Crew lead c", classification: "crew_lead", credentials: [], unavailable: [], timeRecords: [] },
+    ];
+    const o = mkOrder("o", { from: "08:00", to: "12:00", workType: "patrol", energized: false });
+    const p: FillProblem = {
+      snapshot: { timezone: TZ, policy: { ...DEFAULT_POLICY }, workers, workOrders: [o], assignments: [] },
+      orders: [{ id: "o", number: "O", title: "o", priority: 1, yardId: "Y1", seats: [{ positionId: "o-1", position: "lead", workerId: null }] }],
+      workers: [
+        { id: "j", name: "Journey j", classification: "journeyman", yardId: "Y1", yardCode: "NOR", phone: null, overtimeHours: 1 },
+        { id: "c", name: "Crew lead c", classification: "crew_lead", yardId: "Y1", yardCode: "NOR", phone: null, overtimeHours: 2.5 },
+      ],
+      yesterdayPairs: [],
+    };
+    const r = await fill(p, EXACT);
+    expect(r.proposals.map((x) => x.workerId)).toEqual(["c"]);
+    expect(r.proposals[0].reasons).toContain("crew lead in the lead seat (crew leads are preferred for lead)");
+  });
+  it("leadSeatCost: energized derrick work adds a cost for a lead without first aid/CPR or rescue training", () => {
+    const derrick = { workType: "digger_derrick", energized: true };
+    expect(leadSeatCost({ classification: "crew_lead" }, derrick, () => true)).toBe(0);
+    expect(leadSeatCost({ classification: "crew_lead" }, derrick, (c) => c === "first_aid_cpr")).toBeGreaterThan(0);
+    expect(leadSeatCost({ classification: "crew_lead" }, { workType: "patrol", energized: false }, () => false)).toBe(0);
+    expect(leadSeatCost({ classification: "journeyman" }, derrick, () => true)).toBeGreaterThan(leadSeatCost({ classification: "crew_lead" }, derrick, () => false));
   });
 });
