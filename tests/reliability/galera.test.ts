@@ -28,6 +28,7 @@ import { makeCrewDay } from "../support/notify";
 import { startMailFake } from "../../scripts/fakes/mail";
 import { startSmsFake } from "../../scripts/fakes/sms";
 import { freePort, ROOT, sleep, startApp, type AppInstance } from "../support/spawn";
+import { smsAuthToken } from "../support/secrets";
 
 const run = promisify(execFile);
 const PROVIDER = "/usr/lib/galera/libgalera_smm.so";
@@ -300,7 +301,7 @@ describe.skipIf(Boolean(skipReason))("three instances on a three-node Galera clu
     const sms = await startSmsFake({
       port: smsPort,
       accountSid: process.env.TWILIO_ACCOUNT_SID ?? "AC00000000000000000000000000000000",
-      authToken: process.env.TWILIO_AUTH_TOKEN ?? "fake-auth-token-for-local-use",
+      authToken: smsAuthToken(), // the installation's token (tests/support/secrets.ts); no default in the repository
       fromNumber: process.env.TWILIO_FROM_NUMBER ?? "+13205550199",
       log: () => undefined,
     });
