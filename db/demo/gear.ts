@@ -25,6 +25,12 @@ export const CLASS_0_ONLY = "CP-2010";
 export const OVERDUE_TEST = "CP-2011";
 /** Andre Beauchamp (CP-1012): gloves due for their test within the month. */
 export const DUE_SOON = "CP-1012";
+/**
+ * The patrollers of the 24.9 kV circuits (WO-26-0106 North, WO-26-0112 Mesa) carry class 3
+ * gloves (maximum use voltage 26.5 kV, 1910.137 Table I-4): the lead on energized work needs
+ * gloves rated for the line (CREW-CHECK.md, RUBBER_GOODS), even on a patrol.
+ */
+export const CLASS_3 = new Set(["CP-1004", "CP-2008"]);
 
 const CLIMBING = new Set(["crew_lead", "journeyman", "apprentice"]);
 const SIZES = ["9", "9.5", "10", "10.5", "11", "11.5"];
@@ -36,7 +42,7 @@ export const DEMO_GEAR: DemoGear[] = WORKERS.filter((w) => CLIMBING.has(w.cls)).
   if (w.no === DUE_SOON) return [{ no: w.no, kind: "rubber_gloves", class: "2", size, testedDaysAgo: 166, issuedDaysAgo: 166 }];
   // Tested in the tool room's round last week, so they stay in test for the next ~6 months
   // (the far-off days that tests and Fill plan on included).
-  const gloves: DemoGear = { no: w.no, kind: "rubber_gloves", class: "2", size, testedDaysAgo: 1 + (i % 5), issuedDaysAgo: 1 + (i % 5) };
+  const gloves: DemoGear = { no: w.no, kind: "rubber_gloves", class: CLASS_3.has(w.no) ? "3" : "2", size, testedDaysAgo: 1 + (i % 5), issuedDaysAgo: 1 + (i % 5) };
   // Journeymen and crew leads also wear class 2 sleeves (12-month test).
   const sleeves: DemoGear[] =
     w.cls === "apprentice" ? [] : [{ no: w.no, kind: "rubber_sleeves", class: "2", size: i % 2 ? "regular" : "long", testedDaysAgo: 30 + ((i * 13) % 90) }];

@@ -8,8 +8,8 @@ import { as, type Client } from "@/tests/support/client";
 // The demo day (db/demo/scenario.ts, db/seeds/01_demo.ts) as the board builds it through
 // GET /api/board, read the way a line foreman would (issue 14). Each order's expected crew-rule
 // findings are listed with the reason beside them. Equipment and rubber-goods findings (issue 16)
-// are checked here only where a practitioner would call them wrong (a visual patrol needs no
-// rubber gloves). Sources: 29 CFR 1910.269 paragraphs as named; ../shared/CREW-CHECK.md
+// are checked here only where a practitioner would call them wrong (a visual patrol's lead
+// carries gloves rated for the 24.9 kV line, so none shows). Sources: 29 CFR 1910.269 paragraphs as named; ../shared/CREW-CHECK.md
 // "Corrections"; the state's one-call law for LOCATE.
 
 const CREW_RULES = new Set([
@@ -130,7 +130,7 @@ describe("the demo day's crew-rule findings are the expected ones", () => {
     }
   });
 
-  it("a visual line patrol carries no finding of any code: the patroller touches nothing, so no rubber-glove class is asked of them (1910.137(c)(2)(i) is about work near exposed energized parts; patrols are outside 1910.269(l)(2) too)", () => {
+  it("a visual line patrol carries no finding of any code: patrols are outside 1910.269(l)(2), and the patroller (the lead) holds class 3 gloves, whose 26.5 kV maximum use voltage covers the 24.9 kV line (1910.137 Table I-4)", () => {
     for (const [yard, number] of [["NOR", "WO-26-0106"], ["MES", "WO-26-0112"]] as const) {
       expect(findingsOf(boards[yard], number).map((f) => `${f.rule}: ${f.message}`), number).toEqual([]);
     }

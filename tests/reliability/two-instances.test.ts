@@ -86,7 +86,7 @@ describe("two instances, one database", () => {
     const results = await Promise.all(
       order.map(async (r, i) => {
         const res = await clients[i % 4].json("/api/assignments", "POST", { positionId: r.positionId, workerId: r.workerId });
-        return { ...r, status: res.status, body: res.body, instance: i % 2 === 0 ? "A" : "B" };
+        return { ...r, status: res.status, body: res.body, instance: i % 4 < 2 ? "A" : "B" };
       }),
     );
     const elapsed = Date.now() - started;
@@ -173,7 +173,7 @@ describe("two instances, one database", () => {
       const results = await Promise.all(
         mixed.map(async (r, i) => {
           const res = await clients[i % 4].json("/api/equipment-assignments", "POST", { workOrderId: r.orderId, equipmentId: r.truck });
-          return { ...r, status: res.status, instance: i % 2 === 0 ? "A" : "B" };
+          return { ...r, status: res.status, instance: i % 4 < 2 ? "A" : "B" };
         }),
       );
       expect(results.filter((r) => r.status >= 500)).toEqual([]);
