@@ -27,7 +27,7 @@ test("fill open positions, accept, and the staffed orders come out clear", async
   }).toPass({ timeout: 20_000 });
   const panel = page.getByTestId("fill-panel");
   await expect(panel.getByTestId("fill-status")).toBeVisible({ timeout: 60_000 });
-  await expect(panel.getByTestId("fill-status")).toContainText(/Optimal|Time limit reached|Nothing to fill/);
+  await expect(panel.getByTestId("fill-status")).toContainText(/Best crews found|Best found in the time allowed|Nothing to fill/);
 
   const staffed = await panel.locator('[data-testid^="fill-order-"]').evaluateAll((els) =>
     els.map((e) => ({

@@ -9,7 +9,7 @@
 import { useQueryClient } from "@tanstack/react-query";
 import { useEffect, useId, useMemo, useRef, useState } from "react";
 import { Badge, SafetyNote } from "@/components/status";
-import { POSITION_LABEL } from "@/lib/format";
+import { fmtDate, POSITION_LABEL } from "@/lib/format";
 import type { FillPreview } from "@/lib/fill/preview";
 import { CalloutButton } from "./callout-list";
 import { call, HttpError } from "./use-board";
@@ -137,7 +137,7 @@ function FillDialog({ day, yard, onClose }: { day: string; yard: string; onClose
           <div>
             <p className="text-xs font-bold uppercase tracking-widest text-copper">Fill open positions · {yard}</p>
             <h2 id={titleId} className="text-lg font-extrabold tracking-tight">
-              Proposed crews for {day}
+              Proposed crews for {fmtDate(day, { weekday: "long", day: "numeric", month: "long", year: "numeric" })}
             </h2>
           </div>
           <button type="button" className="btn-quiet" onClick={onClose} disabled={stage === "accepting"}>
@@ -147,6 +147,12 @@ function FillDialog({ day, yard, onClose }: { day: string; yard: string; onClose
 
         <div className="flex-1 space-y-3 overflow-y-auto px-4 py-3">
           <div className="flex flex-wrap items-end gap-3">
+            <button type="button" className="btn-quiet" onClick={solve} disabled={stage === "solving" || stage === "accepting"}>
+              {preview ? "Propose again" : "Propose crews"}
+            </button>
+            <details className="text-sm">
+              <summary className="cursor-pointer text-ink-700">Solver settings</summary>
+              <div className="mt-2 flex flex-wrap items-end gap-3">
             <label className="text-sm">
               <span className="label">Time limit</span>
               <select className="field w-auto" value={limit} onChange={(e) => setLimit(Number(e.target.value))} disabled={stage === "solving"}>
@@ -167,9 +173,8 @@ function FillDialog({ day, yard, onClose }: { day: string; yard: string; onClose
                 ))}
               </select>
             </label>
-            <button type="button" className="btn-quiet" onClick={solve} disabled={stage === "solving" || stage === "accepting"}>
-              {preview ? "Solve again" : "Solve"}
-            </button>
+              </div>
+            </details>
           </div>
 
           {error && (
@@ -192,7 +197,7 @@ function FillDialog({ day, yard, onClose }: { day: string; yard: string; onClose
                 <div className="h-full bg-copper transition-all" style={{ width: `${Math.min(100, (elapsed / limit) * 100)}%` }} />
               </div>
               <p className="mt-1 text-xs text-ink-500">
-                {elapsed.toFixed(0)} s of at most {limit} s (HiGHS time limit), then the crew rules re-check the answer.
+                {elapsed.toFixed(0)} s of at most {limit} s, then the crew rules re-check the answer.
               </p>
             </div>
           )}
@@ -201,15 +206,19 @@ function FillDialog({ day, yard, onClose }: { day: string; yard: string; onClose
             <>
               <div className="flex flex-wrap items-center gap-2 text-sm" data-testid="fill-status">
                 {preview.status === "Optimal" && preview.optimal ? (
-                  <Badge tone="clear">Optimal (gap {pct(preview.gap)})</Badge>
+                  <Badge tone="clear">Best crews found</Badge>
                 ) : preview.status === "Nothing to fill" ? (
                   <Badge tone="info">Nothing to fill</Badge>
                 ) : preview.proposals.length || preview.status === "Optimal" ? (
-                  <Badge tone="warn">
-                    {preview.status}: best found, gap {pct(preview.gap)}
-                  </Badge>
+                  <Badge tone="warn">Best found in the time allowed</Badge>
                 ) : (
-                  <Badge tone="block">{preview.status}: no proposal</Badge>
+                  <Badge tone="block">No proposal found</Badge>
+                )}
+                {preview.status !== "Nothing to fill" && (
+                  <details className="text-xs text-ink-500" data-testid="fill-details">
+                    <summary className="cursor-pointer">details</summary>
+                    Solver (HiGHS): {preview.status}, optimality gap {pct(preview.gap)}
+                  </details>
                 )}
                 <span className="text-ink-700">
                   {preview.proposals.length} position{preview.proposals.length === 1 ? "" : "s"} on {preview.staffed.length} order
