@@ -1,4 +1,19 @@
+import { readFileSync } from "node:fs";
+import path from "node:path";
 import type { Knex } from "knex";
+
+/**
+ * The database password: from the environment, else the one scripts/lib/common.sh generated for
+ * this installation into .data/db-password (none is written in the repository).
+ */
+export function dbPassword(): string | undefined {
+  if (process.env.DB_PASSWORD) return process.env.DB_PASSWORD;
+  try {
+    return readFileSync(path.join(process.cwd(), ".data", "db-password"), "utf8").trim();
+  } catch {
+    return undefined;
+  }
+}
 
 // One configuration, read from the environment that scripts/start and scripts/test set.
 // Times are stored in UTC (DATETIME); DATE columns come back as 'YYYY-MM-DD' strings.
@@ -9,7 +24,7 @@ export function dbConfig(overrides: Partial<Record<"database", string>> = {}): K
       host: process.env.DB_HOST ?? "127.0.0.1",
       port: Number(process.env.DB_PORT ?? 3307),
       user: process.env.DB_USER ?? "gaffline",
-      password: process.env.DB_PASSWORD ?? "gaffline-local",
+      password: dbPassword(),
       database: overrides.database ?? process.env.DB_NAME ?? "gaffline",
       timezone: "Z",
       // mysql2 accepts a list of column types here; knex's typing only knows the boolean form.

@@ -7,7 +7,6 @@ cd "$ROOT"
 export DB_HOST=127.0.0.1
 export DB_PORT="${DB_PORT:-3307}"
 export DB_USER="${DB_USER:-gaffline}"
-export DB_PASSWORD="${DB_PASSWORD:-gaffline-local}"
 DATA_DIR="$ROOT/.data"
 MARIADB_DIR="$DATA_DIR/mariadb"
 MARIADB_SOCK="$MARIADB_DIR/mysqld.sock"
@@ -135,6 +134,8 @@ installation_secret() {
   cat "$file"
 }
 export NEXTAUTH_SECRET="${NEXTAUTH_SECRET:-$(installation_secret nextauth-secret)}"
+# The app's database user on our own MariaDB: its password is this installation's too.
+export DB_PASSWORD="${DB_PASSWORD:-$(installation_secret db-password)}"
 export TWILIO_ACCOUNT_SID="${TWILIO_ACCOUNT_SID:-AC00000000000000000000000000000000}"
 # The SMS provider's auth token signs inbound texts (the webhook's only check). With the fakes
 # it is this installation's own random token, shared by the app and the SMS fake.

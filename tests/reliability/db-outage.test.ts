@@ -11,6 +11,7 @@ import { execFile } from "node:child_process";
 import { promisify } from "node:util";
 import { afterAll, beforeAll, describe, expect, it } from "vitest";
 import { account, Client } from "../support/client";
+import { dbPassword } from "@/knexfile";
 import { ownMariaDb, sleep, startApp, type AppInstance, type OwnMariaDb } from "../support/spawn";
 
 const run = promisify(execFile);
@@ -19,7 +20,7 @@ const DOWN_MS = FULL ? 20_000 : 5_000;
 const CLIENT_TIMEOUT_MS = 3_000;
 const DB_NAME = "gaffline_outage";
 const DB_USER = process.env.DB_USER ?? "gaffline";
-const DB_PASSWORD = process.env.DB_PASSWORD ?? "gaffline-local";
+const DB_PASSWORD = dbPassword() ?? "";
 
 let maria: OwnMariaDb;
 let app: AppInstance;
