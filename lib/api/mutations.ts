@@ -1,0 +1,81 @@
+"use client";
+
+// TanStack Query mutations over apiFetch (lib/api/client.ts): the screens' one way to write.
+//
+//   const save = useApiMutation({
+//     request: (v: Values) => ({ url: "/api/things", method: "POST", body: v }),
+//     form,                    // optional: 422 / field-naming 409 issues land on its fields
+//     refresh: true,           // router.refresh() after success
+//     onSuccess: (data, v) => …,
+//   });
+//   <form onSubmit={form.handleSubmit(save.submit)}> … {save.alert} … save.isPending
+//
+// `submit` never throws (handleSubmit stays quiet); the failure is in `save.failure`, its
+// sentence in `save.errorText`, and `save.conflict` is true on a 409 (offer a reload).
+import { useMutation } from "@tanstack/react-query";
+import { useRouter } from "next/navigation";
+import { useCallback, useState } from "react";
+import type { FieldValues } from "react-hook-form";
+import { ApiFailure, apiFetch, asFailure, placeFailure, type IssueTarget } from "./client";
+
+export interface ApiRequest {
+  url: string;
+  method?: string;
+  body?: unknown;
+}
+
+export interface UseApiMutationOptions<TVars, TData, F extends FieldValues> {
+  request: (vars: TVars) => ApiRequest;
+  form?: IssueTarget<F> | null;
+  /** Limit the issues put on fields to these names (and their children). */
+  fields?: readonly string[];
+  refresh?: boolean;
+  onSuccess?: (data: TData, vars: TVars) => void | Promise<void>;
+  onFailure?: (failure: ApiFailure, vars: TVars) => void;
+}
+
+export function useApiMutation<TVars = void, TData = any, F extends FieldValues = FieldValues>(opts: UseApiMutationOptions<TVars, TData, F>) {
+  const router = useRouter();
+  const [failure, setFailure] = useState<ApiFailure | null>(null);
+  const mutation = useMutation<TData, ApiFailure, TVars>({
+    mutationFn: async (vars) => {
+      const r = opts.request(vars);
+      try {
+        return await apiFetch<TData>(r.url, { method: r.method, body: r.body });
+      } catch (err) {
+        throw asFailure(err);
+      }
+    },
+    onMutate: () => setFailure(null),
+    onSuccess: async (data, vars) => {
+      await opts.onSuccess?.(data, vars);
+      if (opts.refresh) router.refresh();
+    },
+    onError: (err, vars) => {
+      const f = asFailure(err);
+      placeFailure(opts.form, f, opts.fields);
+      setFailure(f);
+      opts.onFailure?.(f, vars);
+    },
+  });
+  const { mutateAsync } = mutation;
+  /** Runs the write; resolves with the data, or undefined when it failed (never throws). */
+  const submit = useCallback(
+    async (vars: TVars): Promise<TData | undefined> => {
+      try {
+        return await mutateAsync(vars);
+      } catch {
+        return undefined;
+      }
+    },
+    [mutateAsync],
+  );
+  return {
+    ...mutation,
+    submit,
+    failure,
+    errorText: failure?.message ?? null,
+    conflict: failure?.conflict ?? false,
+    clearFailure: () => setFailure(null),
+  };
+}
