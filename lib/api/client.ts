@@ -16,7 +16,7 @@
 // message }], current?, … }`: 422 from `readJson` names each bad field by its dotted path
 // ("positions.0.position"); 409 is a stale or clashing write, sometimes with `issues` (a taken
 // employee number) and usually with `current`.
-import type { FieldValues, Path, UseFormSetError } from "react-hook-form";
+
 
 export interface FieldIssue {
   field: string;
@@ -110,8 +110,9 @@ export function asFailure(err: unknown): ApiFailure {
 }
 
 /** The part of a react-hook-form the mapping needs (`form` itself fits). */
-export interface IssueTarget<F extends FieldValues> {
-  setError: UseFormSetError<F>;
+export interface IssueTarget {
+  // a method, so any react-hook-form's setError (typed by its own field names) fits
+  setError(name: any, error: { type: string; message: string }): void;
 }
 
 export interface Placed {
@@ -128,14 +129,14 @@ export interface Placed {
  * path is the route's (dotted, as zod and react-hook-form both write it). `only` limits it to the
  * fields the form shows; the rest stay in the alert's sentence.
  */
-export function placeFailure<F extends FieldValues>(form: IssueTarget<F> | null | undefined, failure: ApiFailure, only?: readonly string[]): Placed {
+export function placeFailure(form: IssueTarget | null | undefined, failure: ApiFailure, only?: readonly string[]): Placed {
   const fields: string[] = [];
   if (form && (failure.status === 422 || failure.status === 409)) {
     for (const issue of failure.issues) {
       if (!issue.field || issue.field === "(body)") continue;
       if (only && !only.some((f) => issue.field === f || issue.field.startsWith(`${f}.`))) continue;
       try {
-        form.setError(issue.field as Path<F>, { type: "server", message: issue.message });
+        form.setError(issue.field, { type: "server", message: issue.message });
         fields.push(issue.field);
       } catch {
         // a field the form does not know: the alert's sentence still says it

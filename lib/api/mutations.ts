@@ -15,7 +15,6 @@
 import { useMutation } from "@tanstack/react-query";
 import { useRouter } from "next/navigation";
 import { useCallback, useState } from "react";
-import type { FieldValues } from "react-hook-form";
 import { ApiFailure, apiFetch, asFailure, placeFailure, type IssueTarget } from "./client";
 
 export interface ApiRequest {
@@ -24,9 +23,9 @@ export interface ApiRequest {
   body?: unknown;
 }
 
-export interface UseApiMutationOptions<TVars, TData, F extends FieldValues> {
+export interface UseApiMutationOptions<TVars, TData> {
   request: (vars: TVars) => ApiRequest;
-  form?: IssueTarget<F> | null;
+  form?: IssueTarget | null;
   /** Limit the issues put on fields to these names (and their children). */
   fields?: readonly string[];
   refresh?: boolean;
@@ -34,7 +33,7 @@ export interface UseApiMutationOptions<TVars, TData, F extends FieldValues> {
   onFailure?: (failure: ApiFailure, vars: TVars) => void;
 }
 
-export function useApiMutation<TVars = void, TData = any, F extends FieldValues = FieldValues>(opts: UseApiMutationOptions<TVars, TData, F>) {
+export function useApiMutation<TVars = void, TData = any>(opts: UseApiMutationOptions<TVars, TData>) {
   const router = useRouter();
   const [failure, setFailure] = useState<ApiFailure | null>(null);
   const mutation = useMutation<TData, ApiFailure, TVars>({

@@ -6,7 +6,7 @@ import { listUnavailability, type UnavailabilityView } from "@/lib/data/unavaila
 import { listWorkers } from "@/lib/data/workers";
 import { addDays, listYards, todayIn } from "@/lib/data/yards";
 import { fmtLocal } from "@/lib/zoned-format";
-import { LeaveForm } from "./leave-form";
+import { LeaveForm } from "@/components/leave-form";
 
 export const metadata = { title: "Leave" };
 

@@ -9,7 +9,7 @@ import { listWorkers } from "@/lib/data/workers";
 import { addDays, todayIn } from "@/lib/data/yards";
 import { fmtDate } from "@/lib/format";
 import { isIsoDate } from "@/lib/rules/time";
-import { CalendarLink } from "./calendar-link";
+import { CalendarLink } from "@/components/calendar-link";
 import { ManualForm } from "./manual-form";
 
 export const metadata = { title: "Time" };
