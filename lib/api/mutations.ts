@@ -10,11 +10,12 @@
 //   });
 //   <form onSubmit={form.handleSubmit(save.submit)}> … {save.alert} … save.isPending
 //
-// `submit` never throws (handleSubmit stays quiet); the failure is in `save.failure`, its
-// sentence in `save.errorText`, and `save.conflict` is true on a 409 (offer a reload).
+// `submit` never throws (handleSubmit stays quiet); the failure is in `save.failure` (until the
+// next run or `save.reset()`), its sentence in `save.errorText`, and `save.conflict` is true on
+// a 409 (offer a reload).
 import { useMutation } from "@tanstack/react-query";
 import { useRouter } from "next/navigation";
-import { useCallback, useState } from "react";
+import { useCallback } from "react";
 import { ApiFailure, apiFetch, asFailure, placeFailure, type IssueTarget } from "./client";
 
 export interface ApiRequest {
@@ -35,7 +36,6 @@ export interface UseApiMutationOptions<TVars, TData> {
 
 export function useApiMutation<TVars = void, TData = any>(opts: UseApiMutationOptions<TVars, TData>) {
   const router = useRouter();
-  const [failure, setFailure] = useState<ApiFailure | null>(null);
   const mutation = useMutation<TData, ApiFailure, TVars>({
     mutationFn: async (vars) => {
       const r = opts.request(vars);
@@ -45,7 +45,6 @@ export function useApiMutation<TVars = void, TData = any>(opts: UseApiMutationOp
         throw asFailure(err);
       }
     },
-    onMutate: () => setFailure(null),
     onSuccess: async (data, vars) => {
       await opts.onSuccess?.(data, vars);
       if (opts.refresh) router.refresh();
@@ -53,7 +52,6 @@ export function useApiMutation<TVars = void, TData = any>(opts: UseApiMutationOp
     onError: (err, vars) => {
       const f = asFailure(err);
       placeFailure(opts.form, f, opts.fields);
-      setFailure(f);
       opts.onFailure?.(f, vars);
     },
   });
@@ -69,12 +67,13 @@ export function useApiMutation<TVars = void, TData = any>(opts: UseApiMutationOp
     },
     [mutateAsync],
   );
+  const failure = mutation.error ?? null;
   return {
     ...mutation,
     submit,
+    /** The last run's refusal (cleared by the next run or `reset()`). */
     failure,
     errorText: failure?.message ?? null,
     conflict: failure?.conflict ?? false,
-    clearFailure: () => setFailure(null),
   };
 }
