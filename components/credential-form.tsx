@@ -10,8 +10,8 @@ import {
   proposeExpiry,
   type CredentialFormInput,
   type CredentialFormValues,
-} from "@/lib/validation/credential";
-import { ACCEPT_ATTR, MAX_UPLOAD_BYTES, MAX_UPLOAD_LABEL, checkFileName, fmtBytes } from "@/lib/validation/file";
+} from "@/lib/credentials/model";
+import { ACCEPT_ATTR, MAX_UPLOAD_BYTES, MAX_UPLOAD_LABEL, checkFileName, fmtBytes } from "@/lib/files/model";
 
 export interface FormType {
   id: number;

@@ -5,7 +5,7 @@ import { useForm } from "react-hook-form";
 import { useState } from "react";
 import { ChoiceGroup, FormAlert, SelectField, TextField } from "@/components/form/fields";
 import { useApiMutation } from "@/lib/api/mutations";
-import { unavailabilitySchema, type UnavailabilityFormValues } from "@/lib/validation/unavailability";
+import { unavailabilitySchema, type UnavailabilityFormValues } from "@/lib/leave/model";
 
 export interface LeaveWorker {
   id: number;

@@ -1,9 +1,9 @@
 import Link from "next/link";
 import { db } from "@/lib/db";
-import { workerCredentials } from "@/lib/data/credentials";
-import { listTypes } from "@/lib/data/qualification-types";
-import { getWorker } from "@/lib/data/workers";
-import { todayIn } from "@/lib/data/yards";
+import { workerCredentials } from "@/lib/credentials/data";
+import { listTypes } from "@/lib/credentials/data-qualification-types";
+import { getWorker } from "@/lib/workers/data";
+import { todayIn } from "@/lib/yards/data";
 import { MyCredentialsList } from "./my-credentials-list";
 
 /**

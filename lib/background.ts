@@ -3,8 +3,8 @@
 // (SKIP LOCKED), and a daily job claims its day in job_claims before it runs.
 import { db } from "@/lib/db";
 import { startDeliveryLoop } from "@/lib/notify/outbox";
-import { runDailyReminders } from "@/lib/reminders";
-import { runDailyGearReminders } from "@/lib/gear/reminders";
+import { runDailyReminders } from "@/lib/credentials/data-reminders";
+import { runDailyGearReminders } from "@/lib/gear/data-reminders";
 
 export interface BackgroundJob {
   name: string;

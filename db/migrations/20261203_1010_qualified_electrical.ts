@@ -3,7 +3,7 @@ import type { Knex } from "knex";
 // Issue 14 (../shared/CREW-CHECK.md, Corrections 1): an equipment operator counts toward the
 // two-worker minimum only with the `qualified_electrical` credential. Every organisation gets
 // the qualification type, so HR can record it on the Credentials desk; the code is one the
-// rules read, so it is locked like the others (lib/validation/qualification-type.ts).
+// rules read, so it is locked like the others (lib/credentials/qualification-types.ts).
 export async function up(knex: Knex): Promise<void> {
   const orgs = await knex("organisations").pluck("id");
   for (const id of orgs) {

@@ -2,7 +2,7 @@
 // share, and the shape the crew rules read (CREW-CHECK.md, "Equipment, gear and field figures").
 // Client-safe: no database, no Node modules.
 import { z } from "zod";
-import { calendarDay } from "@/lib/validation/day";
+import { calendarDay } from "@/lib/time/days";
 
 export const EQUIPMENT_KINDS = ["bucket_truck", "digger_derrick", "pickup", "trailer", "other"] as const;
 export type EquipmentKind = (typeof EQUIPMENT_KINDS)[number];

@@ -1,5 +1,5 @@
 // The fill problem for a yard and day, from the database: the day's orders and seats, the
-// rule snapshot (lib/data/board.ts's buildSnapshot: credentials, leave, worked time and the
+// rule snapshot (lib/board/data.ts's buildSnapshot: credentials, leave, worked time and the
 // workers' other orders near the day), every active worker of the organisation as the pool,
 // their overtime over the last 28 days and yesterday's crews. Reads only.
 //
@@ -8,8 +8,8 @@
 // started the day before. Either is a crew that went out together.
 
 import type { Knex } from "knex";
-import { buildSnapshot, crewHash, dayOrders, dayWindow, liveAssignments, type OrderRow } from "@/lib/data/board";
-import { addDays, type Yard } from "@/lib/data/yards";
+import { buildSnapshot, crewHash, dayOrders, dayWindow, liveAssignments, type OrderRow } from "@/lib/board/data";
+import { addDays, type Yard } from "@/lib/yards/data";
 import type { Position } from "@/lib/rules/types";
 import { OVERTIME_WINDOW_DAYS, overtimeHours } from "./overtime";
 import type { FillOrder, FillProblem, FillWorker } from "./types";

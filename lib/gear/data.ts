@@ -1,8 +1,8 @@
 import type { Knex } from "knex";
 import { ApiError } from "@/lib/api/http";
-import { audit, type Actor } from "@/lib/data/audit";
-import { boardEvent } from "@/lib/data/events";
-import { todayIn } from "@/lib/data/yards";
+import { audit, type Actor } from "@/lib/audit/data";
+import { boardEvent } from "@/lib/board/data-events";
+import { todayIn } from "@/lib/yards/data";
 import { parseGearCsv, planGearImport, type GearIssue, type GearLookups, type RawGearRow } from "./csv";
 import { gearState, inGearView, type GearClass, type GearCreate, type GearItem, type GearKind, type GearPatch, type GearQuery, type RuleGear } from "./model";
 import { toRuleLift, type LiftConfirm, type LiftPlan, type LiftPlanBody, type RiggingChoice } from "./lift";

@@ -1,6 +1,6 @@
 import { z } from "zod";
 import { MAX_USE_VOLTS, RETEST_MONTHS } from "@/lib/rules/gear";
-import { addMonthsIso, isoDate, isRealDate } from "@/lib/validation/credential";
+import { addMonthsIso, isoDate, isRealDate } from "@/lib/credentials/model";
 
 // Rubber goods: a worker's insulating gloves and sleeves. Types, labels, the schemas shared by
 // the routes, the forms and the tests, and the retest arithmetic. Pure (no database).

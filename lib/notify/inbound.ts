@@ -3,9 +3,9 @@
 // failed) hits the unique key on inbound_messages.provider_sid and changes nothing.
 import type { Knex } from "knex";
 import { parsePhoneNumberFromString } from "libphonenumber-js";
-import { audit } from "@/lib/data/audit";
+import { audit } from "@/lib/audit/data";
 import { withConflictRetry } from "@/lib/db";
-import { respond, ResponseRefused, type Answer } from "@/lib/data/responses";
+import { respond, ResponseRefused, type Answer } from "@/lib/assignments/data-responses";
 import { formatPhone, replyText, shortDay, whenText } from "./messages";
 import { parseReply } from "./replies";
 

@@ -21,13 +21,13 @@ import { createHash, randomUUID } from "node:crypto";
 import type { Knex } from "knex";
 import { parsePhoneNumberFromString } from "libphonenumber-js";
 import { ApiError } from "@/lib/api/http";
-import { audit, type Actor } from "@/lib/data/audit";
-import { loadBoard, unresolvedBlocks } from "@/lib/data/board";
-import { bumpOrders } from "@/lib/data/booking";
-import { boardEvent } from "@/lib/data/events";
+import { audit, type Actor } from "@/lib/audit/data";
+import { loadBoard, unresolvedBlocks } from "@/lib/board/data";
+import { bumpOrders } from "@/lib/assignments/data-booking";
+import { boardEvent } from "@/lib/board/data-events";
 import { withConflictRetry } from "@/lib/db";
-import { pickYard } from "@/lib/data/yards";
-import { prepareBoardDay } from "@/lib/board/extras";
+import { pickYard } from "@/lib/yards/data";
+import { prepareBoardDay } from "@/lib/board/data-extras";
 import { appPublicUrl } from "./config";
 import { jobEmail, jobSms, removalSms, type JobFacts, type OutboundKind } from "./messages";
 import { unitsForOrders } from "@/lib/equipment/data";
@@ -212,7 +212,7 @@ export async function sendCrews(db: Knex, user: SessionActor, input: { date: str
     const orderIds = locked.filter((o) => o.status !== "done").map((o) => o.id as number);
     // The block check below relies on these locks: write the rows too (booking_seq), so a crew
     // change committed on another Galera node meanwhile, or a second Send crews there, collides
-    // at commit and this send runs again on what is then committed (lib/data/booking.ts).
+    // at commit and this send runs again on what is then committed (lib/assignments/data-booking.ts).
     await bumpOrders(trx, locked.map((o) => o.id as number));
 
     // The board as it stands under the lock: no unresolved block may remain.

@@ -1,6 +1,6 @@
 // Turning an order as shown into the values its edit form (and PATCH merging) starts from. Pure.
-import type { OrderEditValues } from "@/lib/validation/order";
-import type { OrderView } from "./types";
+import type { OrderEditValues } from "@/lib/orders/schema";
+import type { OrderView } from "./model";
 
 export function editValuesFromView(o: OrderView): OrderEditValues {
   return {

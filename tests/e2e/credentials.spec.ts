@@ -1,6 +1,6 @@
 import { expect, test, type Page } from "@playwright/test";
 import { WORKERS } from "../../db/demo/scenario";
-import { proposeExpiry } from "../../lib/validation/credential";
+import { proposeExpiry } from "../../lib/credentials/model";
 import { minimalPdf } from "../support/files";
 
 // Credentials desk, end to end. Runs on a freshly seeded demo, in any order with other

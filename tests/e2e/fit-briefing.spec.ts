@@ -1,7 +1,7 @@
 import { expect, test, type APIRequestContext } from "@playwright/test";
 import knex from "knex";
 import { dbConfig } from "../../knexfile";
-import { emptyBriefing } from "../../lib/validation/briefing";
+import { emptyBriefing } from "../../lib/briefings/model";
 import { signIn } from "./helpers";
 
 // The briefing refuses (issue 18 point 12), on the route (422 naming the field) and in the form:

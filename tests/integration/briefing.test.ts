@@ -8,7 +8,7 @@ import { afterAll, beforeAll, describe, expect, it } from "vitest";
 import { dbConfig } from "@/knexfile";
 import { DEMO_ACCOUNTS } from "@/db/demo/accounts";
 import { FIELD_ACCOUNTS } from "@/db/demo/field-accounts";
-import { emptyBriefing, type BriefingData, type GearCheckValues } from "@/lib/validation/briefing";
+import { emptyBriefing, type BriefingData, type GearCheckValues } from "@/lib/briefings/model";
 import { as, Client } from "../support/client";
 import { makeOrder, removeMadeOrders, workerByNo } from "../support/fixtures";
 import { elfBytes, tinyPng } from "../support/files";

@@ -3,7 +3,7 @@ import { afterAll, beforeAll, describe, expect, it } from "vitest";
 import knex, { type Knex } from "knex";
 import { dbConfig } from "@/knexfile";
 import { as, type Client } from "@/tests/support/client";
-import { addDaysIso, proposeExpiry } from "@/lib/validation/credential";
+import { addDaysIso, proposeExpiry } from "@/lib/credentials/model";
 
 // CSV import and export against the running app. The import is all-or-nothing: one bad
 // row and nothing is written. The rows go to workers made for this test (inactive, so no

@@ -1,8 +1,8 @@
 import { afterAll, beforeAll, describe, expect, it } from "vitest";
 import knex, { type Knex } from "knex";
 import { dbConfig } from "@/knexfile";
-import { JOB, runDailyReminders, sendRemindersNow } from "@/lib/reminders";
-import { todayIn } from "@/lib/data/yards";
+import { JOB, runDailyReminders, sendRemindersNow } from "@/lib/credentials/data-reminders";
+import { todayIn } from "@/lib/yards/data";
 import { fmtDate } from "@/lib/format";
 
 // Reminders go into the notifications outbox; this checks the outbox and the claim tables

@@ -3,7 +3,7 @@ import knex, { type Knex } from "knex";
 import { dbConfig } from "@/knexfile";
 import { as, Client, type DemoRole } from "@/tests/support/client";
 import { minimalPdf } from "@/tests/support/files";
-import { addDaysIso, proposeExpiry } from "@/lib/validation/credential";
+import { addDaysIso, proposeExpiry } from "@/lib/credentials/model";
 
 // Workers and credentials through the running app (APP_URL) and its database (DB_NAME).
 // Roles as the product brief gives them: hr and admin keep workers and credentials,

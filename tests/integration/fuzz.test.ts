@@ -164,8 +164,8 @@ const BAD_IDS = ["0", "-1", "1.5", "1e1", "1e308", "99999999999999999999", "2147
 /**
  * Defects found here in code another issue owns, reported rather than fixed in this one; each is
  * tolerated only for exactly the input that shows it, and listed in the run's summary line.
- * POST /api/fill: lib/validation/fill.ts checks the date's shape but not that it is a real day
- * (0000-00-00, 2026-02-30, 9999-12-31 → 500); the fix is the refine lib/validation/board.ts uses.
+ * POST /api/fill: lib/fill/schema.ts checks the date's shape but not that it is a real day
+ * (0000-00-00, 2026-02-30, 9999-12-31 → 500); the fix is the refine lib/board/schema.ts uses.
  */
 const KNOWN_OPEN: Record<string, (requestText: string) => boolean> = {};
 const knownSeen = new Map<string, number>();

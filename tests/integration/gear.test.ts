@@ -4,8 +4,8 @@ import knex, { type Knex } from "knex";
 import { dbConfig } from "@/knexfile";
 import { as, Client, type DemoRole } from "@/tests/support/client";
 import { makeOrder, removeMadeOrders, workerByNo } from "@/tests/support/fixtures";
-import { addDays, todayIn } from "@/lib/data/yards";
-import { addMonthsIso } from "@/lib/validation/credential";
+import { addDays, todayIn } from "@/lib/yards/data";
+import { addMonthsIso } from "@/lib/credentials/model";
 
 // Rubber goods and lift plans against the running app and MariaDB. Rubber goods written here
 // belong to workers made for this test (inactive, so no board shows them) or carry serials

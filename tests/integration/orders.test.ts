@@ -1,8 +1,8 @@
 import knex, { type Knex } from "knex";
 import { afterAll, beforeAll, describe, expect, it } from "vitest";
 import { dbConfig } from "@/knexfile";
-import { addDays, todayIn } from "@/lib/data/yards";
-import { onCallAt } from "@/lib/rotations";
+import { addDays, todayIn } from "@/lib/yards/data";
+import { onCallAt } from "@/lib/rotations/data-on-call";
 import { as, Client } from "@/tests/support/client";
 
 // Work orders, leave, rotations, time records and the calendar feed against the running app

@@ -15,7 +15,7 @@ import twilio from "twilio";
 import { afterAll, beforeAll, describe, expect, it } from "vitest";
 import { dbConfig } from "@/knexfile";
 import { DEMO_ACCOUNTS } from "@/db/demo/accounts";
-import { emptyBriefing } from "@/lib/validation/briefing";
+import { emptyBriefing } from "@/lib/briefings/model";
 import { formatPhone } from "@/lib/notify/messages";
 import { APP_URL, as, Client } from "../support/client";
 import { minimalPdf, tinyPng } from "../support/files";

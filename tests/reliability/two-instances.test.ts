@@ -3,7 +3,7 @@
 // (NEXT_DIST_DIR, default .next) and sends 50 conflicting placements split across both:
 //   5 seat conflicts:   5 different workers for one open seat          → 1 winner, 4 × 409
 //   5 worker conflicts: one worker for 5 overlapping orders' seats     → 1 winner, 4 × 409
-// The database decides (row locks and versions in lib/data/assignments.ts), so there is one
+// The database decides (row locks and versions in lib/assignments/data.ts), so there is one
 // winner per conflict whichever instance each request reaches, no double booking is persisted,
 // and both boards show the same crews within 5 s.
 import knex from "knex";

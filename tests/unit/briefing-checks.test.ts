@@ -1,5 +1,5 @@
 import { describe, expect, it } from "vitest";
-import { completionTooEarly, earliestCompletion, emergencyRoleIssues, rescueNeeded } from "@/lib/briefing/checks";
+import { completionTooEarly, earliestCompletion, emergencyRoleIssues, rescueNeeded } from "@/lib/briefings/checks";
 
 // Issue 18 point 12. Zone rules from the IANA tz database: America/Chicago is UTC−6 in winter
 // (CST) and UTC−5 in summer (CDT); in 2026 summer time starts Sunday March 8 and ends Sunday

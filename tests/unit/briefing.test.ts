@@ -1,4 +1,4 @@
-// The briefing's schemas and completion rules (lib/validation/briefing.ts), no database.
+// The briefing's schemas and completion rules (lib/briefings/model.ts), no database.
 import { describe, expect, it } from "vitest";
 import {
   briefingDataSchema,
@@ -8,7 +8,7 @@ import {
   gearCheckSchema,
   poleCheckPasses,
   POLE_CHECK_KEYS,
-} from "@/lib/validation/briefing";
+} from "@/lib/briefings/model";
 
 const crew = [
   { workerId: 1, position: "lead" },

@@ -1,12 +1,12 @@
 import Papa from "papaparse";
 import { describe, expect, it } from "vitest";
-import { proposeExpiry } from "@/lib/validation/credential";
-import { credentialExportCsv, parseCredentialCsv, planImport, type ExportRow, type ImportLookups } from "@/lib/validation/credential-csv";
+import { proposeExpiry } from "@/lib/credentials/model";
+import { credentialExportCsv, parseCredentialCsv, planImport, type ExportRow, type ImportLookups } from "@/lib/credentials/csv";
 
 // The credentials CSV round trip (issue 18 point 2): the desk's export imports back as a no-op,
 // and an export with a few rows edited changes exactly those rows. The export is CSV as
 // RFC 4180 writes it (quoted cells, CRLF), produced and read here by papaparse, the same
-// library the app uses; renewal arithmetic as lib/validation/credential.ts proposes it
+// library the app uses; renewal arithmetic as lib/credentials/model.ts proposes it
 // (issued + N months − 1 day, policy).
 
 const TYPES = [
@@ -45,7 +45,7 @@ const no = (w: number) => `CP-${2000 + w}`;
 
 function exportOf(rows: Stored[]): string {
   const shown: ExportRow[] = rows
-    .filter((r) => r.status !== "superseded") // the desk lists current and pending (lib/data/credentials.ts)
+    .filter((r) => r.status !== "superseded") // the desk lists current and pending (lib/credentials/data.ts)
     .map((r) => {
       const t = TYPES.find((x) => x.id === r.typeId)!;
       return {

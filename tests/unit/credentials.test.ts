@@ -1,6 +1,6 @@
 import { describe, expect, it } from "vitest";
-import { formatIssue, inView, isRealDate, proposeExpiry } from "@/lib/validation/credential";
-import { parseCredentialCsv, planImport, type ImportLookups } from "@/lib/validation/credential-csv";
+import { formatIssue, inView, isRealDate, proposeExpiry } from "@/lib/credentials/model";
+import { parseCredentialCsv, planImport, type ImportLookups } from "@/lib/credentials/csv";
 
 describe("proposeExpiry: issued + N months − 1 day (the last valid day; policy, as the demo seed writes it)", () => {
   it.each([

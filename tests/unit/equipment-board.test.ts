@@ -1,6 +1,6 @@
 import { describe, expect, it } from "vitest";
 import fc from "fast-check";
-import type { BoardPayload } from "@/lib/board/types";
+import type { BoardPayload } from "@/lib/board/model";
 import { findingsForOrders } from "@/lib/rules/engine";
 import { DEFAULT_POLICY, type DaySnapshot, type WorkOrder } from "@/lib/rules/types";
 import { zonedWallTimeToEpoch } from "@/lib/rules/time";

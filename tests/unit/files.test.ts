@@ -1,6 +1,6 @@
 import { describe, expect, it } from "vitest";
-import { checkFileName, MAX_UPLOAD_BYTES } from "@/lib/validation/file";
-import { checkUpload, contentDisposition, sniffType } from "@/lib/files";
+import { checkFileName, MAX_UPLOAD_BYTES } from "@/lib/files/model";
+import { checkUpload, contentDisposition, sniffType } from "@/lib/files/data";
 import { elfBytes, minimalPdf, mzBytes, tinyJpeg, tinyPng } from "@/tests/support/files";
 
 // Type sniffing uses file-type (magic numbers); the expected types come from the format

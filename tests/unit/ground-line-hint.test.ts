@@ -1,5 +1,5 @@
 import { describe, expect, it } from "vitest";
-import { GROUND_LINE_HINTS, POLE_CHECKS, POLE_MATERIALS, poleCheckHint } from "@/lib/validation/briefing";
+import { GROUND_LINE_HINTS, POLE_CHECKS, POLE_MATERIALS, poleCheckHint } from "@/lib/briefings/model";
 
 // The ground-line check reads differently by pole material. Common practice (Appendix D to
 // 29 CFR 1910.269 covers wood poles only: decay at and just below the ground line); steel

@@ -1,7 +1,7 @@
 import { describe, expect, it } from "vitest";
 import { isValidPhoneNumber, parsePhoneNumberWithError } from "libphonenumber-js/max";
-import { toE164 } from "@/lib/validation/worker";
-import { workerSchema } from "@/lib/validation/worker";
+import { toE164 } from "@/lib/workers/model";
+import { workerSchema } from "@/lib/workers/model";
 
 // Reference: libphonenumber-js (max metadata, generated from Google's libphonenumber
 // PhoneNumberMetadata.xml). Every case is checked twice: against the literal E.164 string

@@ -6,7 +6,7 @@ import {
   parseRrule,
   repeatFormFrom,
   type RecurrenceSpec,
-} from "@/lib/recurrence";
+} from "@/lib/orders/data-occurrences";
 import { epochToOffsetTime, offsetAt } from "@/lib/rules/time";
 
 // Worked examples from RFC 5545 §3.8.5.3 ("Recurrence Rule", Examples). Every example there

@@ -3,7 +3,7 @@ import { requirePageRole } from "@/lib/auth/session";
 import { db } from "@/lib/db";
 import { PageHeader } from "@/components/status";
 import { ROLE_LABEL, type Role } from "@/lib/auth/roles";
-import { getPolicy } from "@/lib/data/policies";
+import { getPolicy } from "@/lib/policies/data";
 import { PolicyForm } from "./policy-form";
 
 export const metadata = { title: "Admin" };

@@ -1,11 +1,11 @@
 import { requirePageRole } from "@/lib/auth/session";
 import { db } from "@/lib/db";
-import { listAudit } from "@/lib/data/audit";
+import { listAudit } from "@/lib/audit/data";
 import { PageHeader } from "@/components/status";
 import { fmtDateTimeZone } from "@/lib/format";
-import { actionLabel, auditSentence } from "@/lib/labels/audit";
+import { actionLabel, auditSentence } from "@/lib/audit/model";
 import { zonedWallTimeToEpoch } from "@/lib/rules/time";
-import { addDays } from "@/lib/data/yards";
+import { addDays } from "@/lib/yards/data";
 
 export const metadata = { title: "Audit" };
 

@@ -18,18 +18,19 @@ import {
 import { useQueryClient } from "@tanstack/react-query";
 import { usePathname, useRouter } from "next/navigation";
 import { useCallback, useEffect, useMemo, useState } from "react";
-import type { BoardPayload, OrderCard } from "@/lib/board/types";
-import { findingKey } from "@/lib/board/types";
+import type { BoardPayload, OrderCard } from "@/lib/board/model";
+import { findingKey } from "@/lib/board/model";
 import { findingsForOrders } from "@/lib/rules/engine";
 import type { Assignment, Finding, Position } from "@/lib/rules/types";
 import { Badge, SafetyNote } from "@/components/status";
 import { CLASSIFICATION_LABEL, fmtDate, POSITION_LABEL } from "@/lib/format";
-import { addDays } from "@/lib/data/yards";
+import { addDays } from "@/lib/yards/data";
 import { jumpToTargets, makeAnnouncements, parseId, previewBlocks, screenReaderInstructions } from "./dnd";
 import { OrderCardView, type WorkerInfo } from "./order-card";
 import { PoolPanel } from "./pool-panel";
 import { FindingRow, OverrideDialog } from "./findings";
-import { call, HttpError, useBoardData, useBoardMutations, useEngine, useLiveEvents, useToast, type Change } from "./use-board";
+import { call, HttpError, useBoardMutations, useEngine, useToast, type Change } from "./use-board";
+import { useBoardData, useLiveBoard } from "./use-board-live";
 import { SendCrewsButton } from "./send-crews";
 import { describeChange, inverseOf } from "./undo";
 import { FillPanel } from "./fill-panel";
@@ -47,18 +48,21 @@ export function BoardClient({
   day,
   yardCode,
   initial,
+  initialVersion,
   role,
 }: {
   day: string;
   yardCode: string;
   initial?: BoardPayload;
+  /** The version of `initial` (lib/board/serve.ts), so the first refresh is a patch. */
+  initialVersion?: string;
   role: string;
 }) {
   const router = useRouter();
   const path = usePathname();
   const qc = useQueryClient();
   const { toast, notify } = useToast();
-  const { key, data, error, isFetching } = useBoardData(day, yardCode, initial);
+  const { key, data, error, isFetching } = useBoardData(day, yardCode, initial, initialVersion);
   const mutation = useBoardMutations(key, notify);
   const engine = useEngine(data);
   const [activeId, setActiveId] = useState<string | null>(null);
@@ -66,7 +70,7 @@ export function BoardClient({
   const [overriding, setOverriding] = useState<Finding | null>(null);
   // Undo (issue 18): the changes made here, newest last; undo sends the opposite change.
   const [history, setHistory] = useState<{ change: Change; label: string }[]>([]);
-  useLiveEvents(key, data?.cursor, activeId !== null || mutation.isPending);
+  const live = useLiveBoard(key, data?.cursor, activeId !== null || mutation.isPending);
   // Equipment (issue 16): trucks dragged with the same sensors; their own locked write path.
   const equipmentDnd = useEquipmentDnd(key, data, notify, { activeId, overId });
   const equipmentById = useMemo(() => new Map((data?.equipment ?? []).map((e) => [e.id, e])), [data?.equipment]);
@@ -378,6 +382,9 @@ export function BoardClient({
         {warnCount > 0 && <Badge tone="warn">{warnCount} warning{warnCount === 1 ? "" : "s"}</Badge>}
         <span className="text-ink-500">
           {data.orders.length} orders · {data.orders.reduce((n, o) => n + o.seats.filter((s) => !s.assignment).length, 0)} open positions
+        </span>
+        <span className="text-xs text-ink-500" data-testid="live-status" data-mode={live}>
+          · {live === "stream" ? "live" : live === "polling" ? "checking every 2 s" : "connecting…"}
         </span>
         {isFetching && <span className="text-xs text-ink-500">· refreshing…</span>}
         {unresolved.length > 0 && (

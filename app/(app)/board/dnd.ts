@@ -3,7 +3,7 @@
 import { KeyboardCode, type Announcements, type KeyboardCoordinateGetter } from "@dnd-kit/core";
 import type { RuleEngine } from "@/lib/rules/engine";
 import type { Assignment, Finding } from "@/lib/rules/types";
-import { findingKey } from "@/lib/board/types";
+import { findingKey } from "@/lib/board/model";
 
 // Drag ids: "pool:<workerId>" and "seat:<positionId>" for things picked up;
 // "seat:<positionId>" and "pool" for places to drop.

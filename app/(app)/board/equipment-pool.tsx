@@ -5,7 +5,7 @@
 // keyboard). Out-of-service equipment is listed with its reason and cannot be picked up.
 import { useDraggable, useDroppable } from "@dnd-kit/core";
 import { memo, useMemo, useState } from "react";
-import type { BoardPayload } from "@/lib/board/types";
+import type { BoardPayload } from "@/lib/board/model";
 import { Badge } from "@/components/status";
 import { EQUIPMENT_KINDS, EQUIPMENT_KIND_LABEL, dielectricState, type Equipment } from "@/lib/equipment/model";
 import { EQUIPMENT_POOL_DROP, truckId } from "./use-equipment";

@@ -4,7 +4,7 @@
 // order a bucket truck, a digger-derrick order a derrick) and room for any further equipment.
 import { useDraggable, useDroppable } from "@dnd-kit/core";
 import type { Finding } from "@/lib/rules/types";
-import type { EquipmentBooking, OrderCard } from "@/lib/board/types";
+import type { EquipmentBooking, OrderCard } from "@/lib/board/model";
 import { EQUIPMENT_KIND_LABEL, REQUIRED_KIND, dielectricState, type Equipment, type EquipmentKind } from "@/lib/equipment/model";
 import { bookingDragId, equipmentAddId, equipmentSeatId } from "./use-equipment";
 

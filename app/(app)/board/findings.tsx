@@ -1,7 +1,7 @@
 "use client";
 
 import { useState } from "react";
-import type { OverrideView } from "@/lib/board/types";
+import type { OverrideView } from "@/lib/board/model";
 import type { Finding } from "@/lib/rules/types";
 import { Badge } from "@/components/status";
 import { fixHint } from "@/lib/board/fix-hints";

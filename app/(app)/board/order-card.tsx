@@ -2,8 +2,8 @@
 
 import { useDraggable, useDroppable } from "@dnd-kit/core";
 import { memo, useState } from "react";
-import type { OrderCard as Card, OverrideView, Seat } from "@/lib/board/types";
-import { findingKey } from "@/lib/board/types";
+import type { OrderCard as Card, OverrideView, Seat } from "@/lib/board/model";
+import { findingKey } from "@/lib/board/model";
 import type { Finding } from "@/lib/rules/types";
 import { Badge, StateIcon } from "@/components/status";
 import { CLASSIFICATION_LABEL, fmtTime, POSITION_LABEL } from "@/lib/format";

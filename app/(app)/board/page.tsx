@@ -1,7 +1,7 @@
-import { requirePageRole } from "@/lib/auth/session";
+import { contactYards, requirePageRole } from "@/lib/auth/session";
 import { db } from "@/lib/db";
-import { pickYard, tomorrowIn } from "@/lib/data/yards";
-import { boardFor } from "@/lib/data/board-cache";
+import { pickYard, tomorrowIn } from "@/lib/yards/data";
+import { boardFor } from "@/lib/board/data-cache";
 import { BoardClient } from "./board-client";
 
 export const metadata = { title: "Board" };
@@ -13,6 +13,8 @@ export default async function BoardPage({ searchParams }: { searchParams: Promis
   const { yard, yards } = await pickYard(db(), user.organisationId, sp.yard, user.homeYardId);
   if (!yard) return <p className="card p-6">No yards are set up yet. An admin adds them.</p>;
   const day = sp.date && /^\d{4}-\d{2}-\d{2}$/.test(sp.date) ? sp.date : tomorrowIn(yard.timezone);
-  const { payload } = await boardFor(db(), { organisationId: user.organisationId, yard, yards, day });
-  return <BoardClient day={day} yardCode={yard.code} initial={payload} role={user.role} />;
+  // The same narrowed, versioned board the API serves (phones of other yards' workers hidden),
+  // so the browser's first refresh is a patch against it.
+  const { payload, version } = await currentVariant(db(), { organisationId: user.organisationId, yard, yards, day }, await contactYards(user));
+  return <BoardClient day={day} yardCode={yard.code} initial={payload} initialVersion={version} role={user.role} />;
 }

@@ -3,7 +3,7 @@
 import { useDraggable, useDroppable } from "@dnd-kit/core";
 import { useVirtualizer } from "@tanstack/react-virtual";
 import { memo, useMemo, useRef, useState } from "react";
-import type { BoardPayload, PoolWorker } from "@/lib/board/types";
+import type { BoardPayload, PoolWorker } from "@/lib/board/model";
 import type { Worker } from "@/lib/rules/types";
 import { CLASSIFICATION_LABEL, daysBetween } from "@/lib/format";
 import { POOL_DROP, poolId } from "./dnd";

@@ -1,4 +1,4 @@
-import type { BoardPayload } from "@/lib/board/types";
+import type { BoardPayload } from "@/lib/board/model";
 import type { Change } from "./use-board";
 
 // Undo of the last board change (issue 18): the opposite change, worked out against the board

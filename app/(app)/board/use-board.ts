@@ -1,8 +1,8 @@
 "use client";
 
-import { useMutation, useQuery, useQueryClient } from "@tanstack/react-query";
-import { useEffect, useMemo, useRef, useState } from "react";
-import type { BoardPayload, SeatAssignment } from "@/lib/board/types";
+import { useMutation, useQueryClient } from "@tanstack/react-query";
+import { useEffect, useMemo, useState } from "react";
+import type { BoardPayload, SeatAssignment } from "@/lib/board/model";
 import { createEngine, type RuleEngine } from "@/lib/rules/engine";
 import type { Assignment, Finding, Position } from "@/lib/rules/types";
 
@@ -29,49 +29,6 @@ async function call<T>(url: string, init?: RequestInit): Promise<T> {
   }
   if (!res.ok) throw new HttpError(res.status, String(body.error ?? `Request failed (${res.status})`), body);
   return body as T;
-}
-
-export function useBoardData(day: string, yard: string, initial?: BoardPayload) {
-  const key: BoardKey = ["board", day, yard];
-  const query = useQuery({
-    queryKey: key,
-    queryFn: () => call<BoardPayload>(`/api/board?date=${encodeURIComponent(day)}&yard=${encodeURIComponent(yard)}`),
-    initialData: initial && initial.day === day && initial.yard.code === yard ? initial : undefined,
-    refetchInterval: 60_000,
-  });
-  return { key, ...query };
-}
-
-/** Polls the shared board_events table; any new event for this day refreshes the board. */
-export function useLiveEvents(key: BoardKey, cursor: number | undefined, paused: boolean) {
-  const qc = useQueryClient();
-  const cursorRef = useRef(cursor ?? 0);
-  useEffect(() => {
-    if (cursor !== undefined && cursor > cursorRef.current) cursorRef.current = cursor;
-  }, [cursor]);
-  useEffect(() => {
-    let stop = false;
-    const [, day, yard] = key;
-    const tick = async () => {
-      if (stop || paused || document.hidden) return;
-      try {
-        const r = await call<{ events: unknown[]; cursor: number }>(
-          `/api/board/events?after=${cursorRef.current}&date=${day}&yard=${yard}`,
-        );
-        if (r.cursor > cursorRef.current) {
-          cursorRef.current = r.cursor;
-          if (r.events.length) await qc.invalidateQueries({ queryKey: key });
-        }
-      } catch {
-        /* the next tick tries again; the query shows its own error */
-      }
-    };
-    const t = setInterval(tick, 2_000);
-    return () => {
-      stop = true;
-      clearInterval(t);
-    };
-  }, [key[1], key[2], paused, qc]); // eslint-disable-line react-hooks/exhaustive-deps
 }
 
 export type Change =

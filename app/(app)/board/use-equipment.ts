@@ -7,7 +7,7 @@
 import type { DragEndEvent } from "@dnd-kit/core";
 import { useMutation, useQueryClient } from "@tanstack/react-query";
 import { useCallback, useMemo } from "react";
-import type { BoardPayload, EquipmentBooking } from "@/lib/board/types";
+import type { BoardPayload, EquipmentBooking } from "@/lib/board/model";
 import { findingsForOrders } from "@/lib/rules/engine";
 import type { DaySnapshot, Finding } from "@/lib/rules/types";
 import { EQUIPMENT_KIND_LABEL, type Equipment } from "@/lib/equipment/model";

@@ -21,8 +21,8 @@ import {
   type SortingState,
 } from "@tanstack/react-table";
 import { CredentialState } from "@/components/credential-state";
-import type { CredentialDetail } from "@/lib/data/credentials";
-import { inView as inViewOf, type CredentialView } from "@/lib/validation/credential";
+import type { CredentialDetail } from "@/lib/credentials/data";
+import { inView as inViewOf, type CredentialView } from "@/lib/credentials/model";
 
 const features = tableFeatures({
   rowSortingFeature,

@@ -1,11 +1,11 @@
 import { requirePageRole } from "@/lib/auth/session";
 import { CAN_KEEP_CREDENTIALS } from "@/lib/auth/roles";
 import { db } from "@/lib/db";
-import { listCredentials } from "@/lib/data/credentials";
-import { listTypes } from "@/lib/data/qualification-types";
-import { listYards } from "@/lib/data/yards";
+import { listCredentials } from "@/lib/credentials/data";
+import { listTypes } from "@/lib/credentials/data-qualification-types";
+import { listYards } from "@/lib/yards/data";
 import { PageHeader } from "@/components/status";
-import { CREDENTIAL_VIEWS, type CredentialView } from "@/lib/validation/credential";
+import { CREDENTIAL_VIEWS, type CredentialView } from "@/lib/credentials/model";
 import { CredentialTabs } from "./tabs";
 import { CredentialsTable } from "./credentials-table";
 import { SendReminders } from "./send-reminders";

@@ -2,10 +2,10 @@ import { requirePageRole } from "@/lib/auth/session";
 import { db } from "@/lib/db";
 import { Badge, PageHeader } from "@/components/status";
 import { ActionButton } from "@/components/form-bits";
-import { listUnavailability, type UnavailabilityView } from "@/lib/data/unavailability";
-import { listWorkers } from "@/lib/data/workers";
-import { addDays, listYards, todayIn } from "@/lib/data/yards";
-import { fmtLocal } from "@/lib/zoned-format";
+import { listUnavailability, type UnavailabilityView } from "@/lib/leave/data";
+import { listWorkers } from "@/lib/workers/data";
+import { addDays, listYards, todayIn } from "@/lib/yards/data";
+import { fmtLocal } from "@/lib/time/zoned-format";
 import { LeaveForm } from "@/components/leave-form";
 
 export const metadata = { title: "Leave" };

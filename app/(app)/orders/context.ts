@@ -1,7 +1,7 @@
 import type { SessionUser } from "@/lib/auth/session";
 import { db } from "@/lib/db";
-import { listWorkTypes } from "@/lib/data/work-types";
-import { listYards, todayIn } from "@/lib/data/yards";
+import { listWorkTypes } from "@/lib/orders/data-work-types";
+import { listYards, todayIn } from "@/lib/yards/data";
 
 export type Search = Promise<Record<string, string | string[] | undefined>>;
 export const one = (v: string | string[] | undefined) => (Array.isArray(v) ? v[0] : v) ?? "";

@@ -2,13 +2,13 @@ import Link from "next/link";
 import { requirePageRole } from "@/lib/auth/session";
 import { ordersContext, one, type Search } from "./context";
 import { Badge, PageHeader } from "@/components/status";
-import { listOrders } from "@/lib/data/orders";
-import { addDays } from "@/lib/data/yards";
+import { listOrders } from "@/lib/orders/data";
+import { addDays } from "@/lib/yards/data";
 import { fmtDate } from "@/lib/format";
 import { locateBadgeLabel } from "@/lib/orders/locate";
 import { STATUS_LABEL, STATUS_TONE } from "@/lib/orders/status";
-import type { OrderListItem } from "@/lib/orders/types";
-import { ensureOccurrences } from "@/lib/recurrence";
+import type { OrderListItem } from "@/lib/orders/model";
+import { ensureOccurrences } from "@/lib/orders/data-occurrences";
 import { isIsoDate } from "@/lib/rules/time";
 import { OrderFilters, statusFilter } from "./filters";
 

@@ -1,7 +1,7 @@
 "use client";
 
 import { FieldError, SelectField, TextField } from "@/components/form/fields";
-import { NTH_LABEL, WEEKDAYS, WEEKDAY_LABEL, buildRrule, type RepeatForm, type WeekdayCode } from "@/lib/recurrence-core";
+import { NTH_LABEL, WEEKDAYS, WEEKDAY_LABEL, buildRrule, type RepeatForm, type WeekdayCode } from "@/lib/time/recurrence";
 import { RecurrencePreview } from "./recurrence-preview";
 
 interface Props {

@@ -2,9 +2,9 @@
 
 import { useMemo, useState } from "react";
 import { FieldError } from "@/components/form/fields";
-import { floating, floatingToLocal, occurrences, parseRrule } from "@/lib/recurrence-core";
+import { floating, floatingToLocal, occurrences, parseRrule } from "@/lib/time/recurrence";
 import { zonedWallTimeToEpoch } from "@/lib/rules/time";
-import { fmtLocal } from "@/lib/zoned-format";
+import { fmtLocal } from "@/lib/time/zoned-format";
 
 /** An occurrence's end: the same wall-clock length after its start (as the server makes it). */
 const endOf = (local: string, minutes: number, tz: string) => zonedWallTimeToEpoch(floatingToLocal(floating(local) + minutes * 60_000), tz);

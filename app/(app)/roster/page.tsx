@@ -1,8 +1,8 @@
 import { requirePageRole } from "@/lib/auth/session";
 import { CAN_KEEP_CREDENTIALS } from "@/lib/auth/roles";
 import { db } from "@/lib/db";
-import { listWorkers } from "@/lib/data/workers";
-import { listYards } from "@/lib/data/yards";
+import { listWorkers } from "@/lib/workers/data";
+import { listYards } from "@/lib/yards/data";
 import { PageHeader } from "@/components/status";
 import { RosterClient } from "./roster-client";
 

@@ -5,8 +5,8 @@ import { useRouter } from "next/navigation";
 import { useState } from "react";
 import { useForm } from "react-hook-form";
 import { CLASSIFICATION_LABEL } from "@/lib/format";
-import type { WorkerRow } from "@/lib/data/workers";
-import { CLASSIFICATIONS, workerSchema, type WorkerFormInput, type WorkerInput } from "@/lib/validation/worker";
+import type { WorkerRow } from "@/lib/workers/data";
+import { CLASSIFICATIONS, workerSchema, type WorkerFormInput, type WorkerInput } from "@/lib/workers/model";
 
 export interface YardOption {
   id: number;

@@ -2,7 +2,7 @@
 
 import { useState } from "react";
 import { ActionButton } from "@/components/form-bits";
-import type { RotationFormValues } from "@/lib/validation/rotation";
+import type { RotationFormValues } from "@/lib/rotations/model";
 import { RotationForm, type WorkerOption, type YardOption } from "./rotation-form";
 
 export function EditRotation(props: { yards: YardOption[]; workers: WorkerOption[]; initial: RotationFormValues; rotationId: number; version: number; name: string }) {

@@ -3,8 +3,8 @@ import { handler, json, readJson } from "@/lib/api/http";
 import { yardScope } from "@/lib/auth/yard-scope";
 import { requireRole } from "@/lib/auth/session";
 import { CAN_DISPATCH } from "@/lib/auth/roles";
-import { createAssignmentSchema } from "@/lib/validation/board";
-import { createAssignment, findingsAfter } from "@/lib/data/assignments";
+import { createAssignmentSchema } from "@/lib/board/schema";
+import { createAssignment, findingsAfter } from "@/lib/assignments/data";
 
 export const POST = handler(async (req) => {
   const user = await requireRole(...CAN_DISPATCH);

@@ -2,8 +2,8 @@ import { db, transact } from "@/lib/db";
 import { handler, json, readJson } from "@/lib/api/http";
 import { yardScope } from "@/lib/auth/yard-scope";
 import { requireRole } from "@/lib/auth/session";
-import { createCallOut } from "@/lib/data/rotations";
-import { callOutSchema } from "@/lib/validation/rotation";
+import { createCallOut } from "@/lib/rotations/data";
+import { callOutSchema } from "@/lib/rotations/model";
 
 // POST: dispatcher, supervisor. Times are wall clock in the rotation's yard (or the worker's).
 export const POST = handler(async (req) => {

@@ -3,12 +3,12 @@ import { ApiError, handler, json, readJson, readQuery } from "@/lib/api/http";
 import { contactWorkerIds, yardScope } from "@/lib/auth/yard-scope";
 import { requireRole } from "@/lib/auth/session";
 import { CAN_DISPATCH } from "@/lib/auth/roles";
-import { createAssignment, findingsAfter } from "@/lib/data/assignments";
-import { listYards } from "@/lib/data/yards";
+import { createAssignment, findingsAfter } from "@/lib/assignments/data";
+import { listYards } from "@/lib/yards/data";
 import { calloutList } from "@/lib/fill/callout";
 import { loadFillProblem } from "@/lib/fill/load";
 import { sendCrews } from "@/lib/notify/send";
-import { calloutPlaceSchema, calloutQuerySchema } from "@/lib/validation/fill";
+import { calloutPlaceSchema, calloutQuerySchema } from "@/lib/fill/schema";
 
 export const dynamic = "force-dynamic";
 

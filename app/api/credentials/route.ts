@@ -1,8 +1,8 @@
 import { db } from "@/lib/db";
 import { ApiError, handler, json, readJson, readQuery } from "@/lib/api/http";
 import { requireRole, type SessionUser } from "@/lib/auth/session";
-import { createCredential, listCredentials } from "@/lib/data/credentials";
-import { credentialCreateSchema, credentialQuerySchema } from "@/lib/validation/credential";
+import { createCredential, listCredentials } from "@/lib/credentials/data";
+import { credentialCreateSchema, credentialQuerySchema } from "@/lib/credentials/model";
 
 /** A lineworker sees only their own worker's records. */
 function ownWorkerOnly(user: SessionUser, workerId: number | undefined): number | undefined {

@@ -5,7 +5,7 @@ import { requireRole } from "@/lib/auth/session";
 import { CAN_DISPATCH } from "@/lib/auth/roles";
 import { bookEquipment } from "@/lib/equipment/data";
 import { equipmentAssignSchema } from "@/lib/equipment/model";
-import { findingsAfterEquipment } from "@/lib/equipment/board";
+import { findingsAfterEquipment } from "@/lib/equipment/data-board";
 
 // POST: put a truck on a work order (the board's drop). 409 when it is on an overlapping
 // order, 422 when it is out of service.

@@ -1,7 +1,7 @@
 import { db } from "@/lib/db";
 import { ApiError, handler, json } from "@/lib/api/http";
 import { requireRole } from "@/lib/auth/session";
-import { readUploadForm, storeUpload } from "@/lib/files";
+import { readUploadForm, storeUpload } from "@/lib/files/data";
 
 // POST multipart/form-data: `file` (PDF, JPEG or PNG, up to 10 MB) and `workerId` (whose
 // evidence it is). hr and admin for any worker; a lineworker for their own record only.

@@ -3,13 +3,13 @@ import { ApiError, handler, json, readJson } from "@/lib/api/http";
 import { yardScope } from "@/lib/auth/yard-scope";
 import { requireRole } from "@/lib/auth/session";
 import { CAN_DISPATCH } from "@/lib/auth/roles";
-import { pickYard } from "@/lib/data/yards";
+import { pickYard } from "@/lib/yards/data";
 import { fill } from "@/lib/fill/fill";
 import { loadFillProblem } from "@/lib/fill/load";
 import { toPreview } from "@/lib/fill/preview";
 import { DEFAULT_SETTINGS } from "@/lib/fill/types";
-import { fillRequestSchema } from "@/lib/validation/fill";
-import { fillTrucks } from "@/lib/equipment/fill-load";
+import { fillRequestSchema } from "@/lib/fill/schema";
+import { fillTrucks } from "@/lib/equipment/data-fill-load";
 
 export const dynamic = "force-dynamic";
 export const maxDuration = 120;

@@ -2,12 +2,12 @@ import { db } from "@/lib/db";
 import { handler, json, readJson, readQuery } from "@/lib/api/http";
 import { yardScope } from "@/lib/auth/yard-scope";
 import { requireRole } from "@/lib/auth/session";
-import { createOrder, getOrder, listOrders } from "@/lib/data/orders";
-import { listYards } from "@/lib/data/yards";
-import { listWorkTypes } from "@/lib/data/work-types";
-import { createSeries } from "@/lib/orders/series";
-import { ensureOccurrences } from "@/lib/recurrence";
-import { orderInputSchema, orderQuerySchema } from "@/lib/validation/order";
+import { createOrder, getOrder, listOrders } from "@/lib/orders/data";
+import { listYards } from "@/lib/yards/data";
+import { listWorkTypes } from "@/lib/orders/data-work-types";
+import { createSeries } from "@/lib/orders/data-series";
+import { ensureOccurrences } from "@/lib/orders/data-occurrences";
+import { orderInputSchema, orderQuerySchema } from "@/lib/orders/schema";
 
 // GET: dispatcher, supervisor, admin (read). Filters: yard (code), from, to (YYYY-MM-DD, the
 // yard-local work date), status (comma list), workType (id or code), q (text).

@@ -3,8 +3,8 @@ import { ApiError, handler, json, readJson } from "@/lib/api/http";
 import { yardScope } from "@/lib/auth/yard-scope";
 import { requireRole } from "@/lib/auth/session";
 import { CAN_OVERRIDE } from "@/lib/auth/roles";
-import { overrideSchema } from "@/lib/validation/board";
-import { createOverride } from "@/lib/data/overrides";
+import { overrideSchema } from "@/lib/board/schema";
+import { createOverride } from "@/lib/assignments/data-overrides";
 
 /** Rules no one may override (also locked in the engine). */
 const NEVER_OVERRIDDEN = new Set<string>(["DOUBLE_BOOKED"]);

@@ -1,7 +1,7 @@
 import { db } from "@/lib/db";
 import { handler, json, readJson } from "@/lib/api/http";
-import { consumeReset } from "@/lib/data/users";
-import { passwordResetSchema } from "@/lib/validation/user";
+import { consumeReset } from "@/lib/users/data";
+import { passwordResetSchema } from "@/lib/users/model";
 
 // POST (public: the e-mailed link is the proof): { token, password }. The token works once and
 // until it expires (410 after); the user's sessions end and they sign in with the new password.

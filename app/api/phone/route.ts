@@ -1,11 +1,11 @@
 import { randomBytes } from "node:crypto";
 import { db } from "@/lib/db";
-import { audit } from "@/lib/data/audit";
+import { audit } from "@/lib/audit/data";
 import { ApiError, handler, json, readJson, readQuery } from "@/lib/api/http";
 import { requireRole, type SessionUser } from "@/lib/auth/session";
 import { yardScope } from "@/lib/auth/yard-scope";
 import { fakesEnabled, inboundWebhookUrl, smsFakeBase } from "@/lib/notify/config";
-import { phoneQuerySchema, phoneReplySchema } from "@/lib/validation/notify";
+import { phoneQuerySchema, phoneReplySchema } from "@/lib/notify/schema";
 
 export const dynamic = "force-dynamic";
 

@@ -1,10 +1,10 @@
 import { db } from "@/lib/db";
 import { handler, json, readJson } from "@/lib/api/http";
 import { requireRole } from "@/lib/auth/session";
-import { getPolicy, savePolicy } from "@/lib/data/policies";
-import { policySchema } from "@/lib/validation/policy";
-import { audit } from "@/lib/data/audit";
-import { boardEvent } from "@/lib/data/events";
+import { getPolicy, savePolicy } from "@/lib/policies/data";
+import { policySchema } from "@/lib/policies/model";
+import { audit } from "@/lib/audit/data";
+import { boardEvent } from "@/lib/board/data-events";
 
 export const GET = handler(async () => {
   const user = await requireRole("admin", "dispatcher", "supervisor", "hr");

@@ -1,8 +1,8 @@
 import { db } from "@/lib/db";
 import { handler, json, readJson } from "@/lib/api/http";
 import { requireRole } from "@/lib/auth/session";
-import { createType, listTypes } from "@/lib/data/qualification-types";
-import { qualificationTypeCreateSchema } from "@/lib/validation/qualification-type";
+import { createType, listTypes } from "@/lib/credentials/data-qualification-types";
+import { qualificationTypeCreateSchema } from "@/lib/credentials/qualification-types";
 
 // GET: every signed-in role but lineworker. POST: hr, admin.
 export const GET = handler(async () => {

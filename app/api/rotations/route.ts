@@ -2,8 +2,8 @@ import { db } from "@/lib/db";
 import { handler, json, readJson } from "@/lib/api/http";
 import { yardScope } from "@/lib/auth/yard-scope";
 import { requireRole } from "@/lib/auth/session";
-import { createRotation, listRotations } from "@/lib/data/rotations";
-import { rotationSchema } from "@/lib/validation/rotation";
+import { createRotation, listRotations } from "@/lib/rotations/data";
+import { rotationSchema } from "@/lib/rotations/model";
 
 // GET: dispatcher, supervisor, hr, admin — each rotation with who is on call now and next.
 export const GET = handler(async () => {

@@ -3,7 +3,7 @@ import { handler, json, readJson } from "@/lib/api/http";
 import { yardScope } from "@/lib/auth/yard-scope";
 import { requireRole } from "@/lib/auth/session";
 import { CAN_DISPATCH } from "@/lib/auth/roles";
-import { sendCrewsSchema } from "@/lib/validation/notify";
+import { sendCrewsSchema } from "@/lib/notify/schema";
 import { sendCrews } from "@/lib/notify/send";
 
 export const dynamic = "force-dynamic";

@@ -1,8 +1,8 @@
 import { db, transact } from "@/lib/db";
 import { ApiError, handler, json, readJson, readQuery } from "@/lib/api/http";
 import { requireRole } from "@/lib/auth/session";
-import { createUnavailability, getUnavailability, listUnavailability } from "@/lib/data/unavailability";
-import { unavailabilityQuerySchema, unavailabilitySchema } from "@/lib/validation/unavailability";
+import { createUnavailability, getUnavailability, listUnavailability } from "@/lib/leave/data";
+import { unavailabilityQuerySchema, unavailabilitySchema } from "@/lib/leave/model";
 
 // GET: hr, supervisor, dispatcher, admin see everyone; a lineworker sees only their own.
 export const GET = handler(async (req) => {

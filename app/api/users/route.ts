@@ -1,8 +1,8 @@
 import { db } from "@/lib/db";
 import { handler, json, readJson } from "@/lib/api/http";
 import { requireRole } from "@/lib/auth/session";
-import { createUser, listUsers } from "@/lib/data/users";
-import { userCreateSchema } from "@/lib/validation/user";
+import { createUser, listUsers } from "@/lib/users/data";
+import { userCreateSchema } from "@/lib/users/model";
 
 // GET: every sign-in of the organisation (admin). POST: a new sign-in (admin) — role, yards
 // for a dispatcher, the worker for a lineworker; the person gets an e-mailed link to set

@@ -1,10 +1,10 @@
 import { db } from "@/lib/db";
 import { ApiError, handler, json, readJson } from "@/lib/api/http";
 import { requireRole } from "@/lib/auth/session";
-import { audit } from "@/lib/data/audit";
-import { boardEvent } from "@/lib/data/events";
-import { listWorkTypes, saveTemplate } from "@/lib/data/work-types";
-import { crewTemplatesSchema } from "@/lib/validation/order";
+import { audit } from "@/lib/audit/data";
+import { boardEvent } from "@/lib/board/data-events";
+import { listWorkTypes, saveTemplate } from "@/lib/orders/data-work-types";
+import { crewTemplatesSchema } from "@/lib/orders/schema";
 
 // GET: everyone who builds or reads orders and crews.
 export const GET = handler(async () => {

@@ -2,8 +2,8 @@ import { db } from "@/lib/db";
 import { handler, json, readJson, readQuery } from "@/lib/api/http";
 import { requireRole } from "@/lib/auth/session";
 import { hideForeignContacts } from "@/lib/auth/yard-scope";
-import { createWorker, listWorkers } from "@/lib/data/workers";
-import { workerQuerySchema, workerSchema } from "@/lib/validation/worker";
+import { createWorker, listWorkers } from "@/lib/workers/data";
+import { workerQuerySchema, workerSchema } from "@/lib/workers/model";
 
 // GET: the roster (hr, admin, dispatcher, supervisor). POST: a new worker (hr, admin).
 export const GET = handler(async (req) => {

@@ -2,7 +2,7 @@ import Link from "next/link";
 import { requirePageRole } from "@/lib/auth/session";
 import { db } from "@/lib/db";
 import { PageHeader } from "@/components/status";
-import { listWorkTypes } from "@/lib/data/work-types";
+import { listWorkTypes } from "@/lib/orders/data-work-types";
 import { TemplateForm } from "./template-form";
 
 export const metadata = { title: "Crew templates" };

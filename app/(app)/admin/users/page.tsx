@@ -2,7 +2,7 @@ import Link from "next/link";
 import { requirePageRole } from "@/lib/auth/session";
 import { db } from "@/lib/db";
 import { PageHeader } from "@/components/status";
-import { listUsers } from "@/lib/data/users";
+import { listUsers } from "@/lib/users/data";
 import { UsersClient } from "./users-client";
 
 export const metadata = { title: "Users" };

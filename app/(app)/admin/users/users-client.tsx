@@ -3,7 +3,7 @@
 import { useRouter } from "next/navigation";
 import { useState } from "react";
 import { ROLES, ROLE_LABEL, type Role } from "@/lib/auth/roles";
-import type { UserView } from "@/lib/data/users";
+import type { UserView } from "@/lib/users/data";
 
 interface Yard {
   id: number;

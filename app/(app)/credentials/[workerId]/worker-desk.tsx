@@ -4,7 +4,7 @@ import { useRouter } from "next/navigation";
 import { Fragment, useState, useSyncExternalStore } from "react";
 import { CredentialForm, type FormType } from "@/components/credential-form";
 import { CredentialState, CurrentWord } from "@/components/credential-state";
-import type { CredentialDetail } from "@/lib/data/credentials";
+import type { CredentialDetail } from "@/lib/credentials/data";
 
 interface Props {
   worker: { id: number; name: string };

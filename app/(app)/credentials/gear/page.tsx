@@ -2,7 +2,7 @@ import Link from "next/link";
 import { requirePageRole } from "@/lib/auth/session";
 import { CAN_KEEP_CREDENTIALS } from "@/lib/auth/roles";
 import { db } from "@/lib/db";
-import { listYards } from "@/lib/data/yards";
+import { listYards } from "@/lib/yards/data";
 import { listGear } from "@/lib/gear/data";
 import { DUE_WINDOW_DAYS, GEAR_KIND_LABEL, GEAR_VIEWS, type GearView } from "@/lib/gear/model";
 import { PageHeader, SafetyNote } from "@/components/status";

@@ -3,8 +3,8 @@
 import Link from "next/link";
 import { useState } from "react";
 import { Badge } from "@/components/status";
-import { formatIssue, importRowSchema, type ImportIssue } from "@/lib/validation/credential";
-import { parseCredentialCsv, type ImportRow } from "@/lib/validation/credential-csv";
+import { formatIssue, importRowSchema, type ImportIssue } from "@/lib/credentials/model";
+import { parseCredentialCsv, type ImportRow } from "@/lib/credentials/csv";
 
 interface Result {
   ok: boolean;

@@ -1,6 +1,6 @@
 import { requirePageRole } from "@/lib/auth/session";
 import { db } from "@/lib/db";
-import { listTypes } from "@/lib/data/qualification-types";
+import { listTypes } from "@/lib/credentials/data-qualification-types";
 import { PageHeader } from "@/components/status";
 import { CredentialTabs } from "../tabs";
 import { ImportClient } from "./import-client";

@@ -1,7 +1,7 @@
 import { requirePageRole } from "@/lib/auth/session";
 import { CAN_KEEP_CREDENTIALS } from "@/lib/auth/roles";
 import { db } from "@/lib/db";
-import { listTypes } from "@/lib/data/qualification-types";
+import { listTypes } from "@/lib/credentials/data-qualification-types";
 import { PageHeader } from "@/components/status";
 import { CredentialTabs } from "../tabs";
 import { TypesClient } from "./types-client";

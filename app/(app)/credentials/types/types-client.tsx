@@ -5,8 +5,8 @@ import { useRouter } from "next/navigation";
 import { useState } from "react";
 import { useForm } from "react-hook-form";
 import { Badge } from "@/components/status";
-import type { QualificationType } from "@/lib/data/credentials";
-import { qualificationTypeCreateSchema, type QualificationTypeCreate, type QualificationTypeCreateInput } from "@/lib/validation/qualification-type";
+import type { QualificationType } from "@/lib/credentials/data";
+import { qualificationTypeCreateSchema, type QualificationTypeCreate, type QualificationTypeCreateInput } from "@/lib/credentials/qualification-types";
 
 const editSchema = qualificationTypeCreateSchema.omit({ code: true });
 type EditInput = Omit<QualificationTypeCreateInput, "code">;

@@ -3,7 +3,7 @@ import { notFound, redirect } from "next/navigation";
 import { requirePageRole } from "@/lib/auth/session";
 import { contactWorkerIds } from "@/lib/auth/yard-scope";
 import { db } from "@/lib/db";
-import { workerThread } from "@/lib/data/messages";
+import { workerThread } from "@/lib/inbox/data";
 import { formatPhone } from "@/lib/notify/messages";
 import { Badge, PageHeader } from "@/components/status";
 import { CLASSIFICATION_LABEL, fmtDateTimeZone } from "@/lib/format";

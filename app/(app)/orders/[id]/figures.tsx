@@ -4,7 +4,7 @@ import { getLiftPlan, riggingChoices } from "@/lib/gear/data";
 import { approachFor, liftFiguresFor } from "@/lib/gear/figures";
 import { isLiftingKind } from "@/lib/gear/lift";
 import { energyLabel } from "@/lib/orders/voltage";
-import type { OrderView } from "@/lib/orders/types";
+import type { OrderView } from "@/lib/orders/model";
 import { LiftPlanEditor } from "./lift-plan";
 
 /** The order page's field figures: minimum approach distance and the lift plan (issue 16). */

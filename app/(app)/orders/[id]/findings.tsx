@@ -1,7 +1,7 @@
 import { db } from "@/lib/db";
-import { findingsAfter } from "@/lib/data/assignments";
+import { findingsAfter } from "@/lib/assignments/data";
 import { Badge, SafetyNote } from "@/components/status";
-import { ruleName } from "@/lib/labels/rules";
+import { ruleName } from "@/lib/rules/rule-labels";
 
 // The order's own findings, as the board shows them, with the caution (issue 18): the crew
 // rules over this order and its crew's neighbouring orders, checked on the server.

@@ -3,7 +3,7 @@
 import { FieldError, SelectField, TextField } from "@/components/form/fields";
 import { POSITION_LABEL } from "@/lib/format";
 import { LICENCE_LABEL } from "@/lib/orders/status";
-import type { WorkTypeView } from "@/lib/orders/types";
+import type { WorkTypeView } from "@/lib/orders/model";
 import { POSITIONS, type Position } from "@/lib/rules/types";
 import { useState } from "react";
 import { emptyToNull, fieldError, nullableNumber, type Mode, type OrderFormApi, type Row } from "./shared";

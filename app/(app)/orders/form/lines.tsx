@@ -3,7 +3,7 @@
 import { CheckField, SelectField, TextAreaField, TextField } from "@/components/form/fields";
 import { locateWarning } from "@/lib/orders/locate";
 import { CREW_EXCEPTION_LABEL } from "@/lib/orders/status";
-import type { WorkTypeView } from "@/lib/orders/types";
+import type { WorkTypeView } from "@/lib/orders/model";
 import { voltageLabel } from "@/lib/orders/voltage";
 import { emptyToNull, fieldError, nullableNumber, type OrderFormApi } from "./shared";
 

@@ -2,7 +2,7 @@
 // "YYYY-MM-DDTHH:mm" wall-clock strings.
 import type { UseFormReturn } from "react-hook-form";
 import { errorAt } from "@/components/form/fields";
-import type { OrderEditValues } from "@/lib/validation/order";
+import type { OrderEditValues } from "@/lib/orders/schema";
 import type { Position } from "@/lib/rules/types";
 
 export interface YardOption {

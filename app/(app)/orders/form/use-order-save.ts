@@ -5,7 +5,7 @@
 import { useRouter } from "next/navigation";
 import { useState } from "react";
 import { useApiMutation } from "@/lib/api/mutations";
-import type { OrderSeat } from "@/lib/orders/types";
+import type { OrderSeat } from "@/lib/orders/model";
 import type { Mode, OrderFormApi, OrderFormShape, Row } from "./shared";
 
 export type Alert = { tone: "block" | "clear" | "warn"; text: string } | null;

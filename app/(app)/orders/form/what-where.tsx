@@ -2,7 +2,7 @@
 
 import { SelectField, TextField } from "@/components/form/fields";
 import { ORDER_STATUSES, PRIORITY_LABEL, STATUS_LABEL } from "@/lib/orders/status";
-import type { WorkTypeView } from "@/lib/orders/types";
+import type { WorkTypeView } from "@/lib/orders/model";
 import { emptyToNull, fieldError, type Mode, type OrderFormApi, type YardOption } from "./shared";
 
 /** Title, yard, work type, place, priority and status (with the hold reason and actual times). */

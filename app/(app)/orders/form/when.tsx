@@ -1,7 +1,7 @@
 "use client";
 
 import { TextField } from "@/components/form/fields";
-import { defaultRepeatForm, type RepeatForm } from "@/lib/recurrence-core";
+import { defaultRepeatForm, type RepeatForm } from "@/lib/time/recurrence";
 import { RecurrenceFields } from "../recurrence-fields";
 import { fieldError, type Mode, type OrderFormApi, type YardOption } from "./shared";
 import { ShiftList } from "./shift-list";

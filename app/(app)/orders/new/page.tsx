@@ -2,8 +2,8 @@ import Link from "next/link";
 import { requirePageRole } from "@/lib/auth/session";
 import { db } from "@/lib/db";
 import { PageHeader } from "@/components/status";
-import { listWorkTypes } from "@/lib/data/work-types";
-import { addDays, listYards, todayIn } from "@/lib/data/yards";
+import { listWorkTypes } from "@/lib/orders/data-work-types";
+import { addDays, listYards, todayIn } from "@/lib/yards/data";
 import { isIsoDate } from "@/lib/rules/time";
 import { OrderForm, type OrderFormShape } from "../order-form";
 

@@ -4,8 +4,8 @@ import { handler, json, readJson } from "@/lib/api/http";
 import { yardScope } from "@/lib/auth/yard-scope";
 import { requireRole } from "@/lib/auth/session";
 import { CAN_DISPATCH } from "@/lib/auth/roles";
-import { moveAssignmentSchema, removeAssignmentSchema } from "@/lib/validation/board";
-import { findingsAfter, moveAssignment, removeAssignment } from "@/lib/data/assignments";
+import { moveAssignmentSchema, removeAssignmentSchema } from "@/lib/board/schema";
+import { findingsAfter, moveAssignment, removeAssignment } from "@/lib/assignments/data";
 
 export const PATCH = handler<{ id: string }>(async (req, ctx) => {
   const user = await requireRole(...CAN_DISPATCH);

@@ -3,8 +3,8 @@ import { handler, json, readJson } from "@/lib/api/http";
 import { requireRole } from "@/lib/auth/session";
 import { yardScope } from "@/lib/auth/yard-scope";
 import { CAN_DISPATCH } from "@/lib/auth/roles";
-import { swapAssignmentsSchema } from "@/lib/validation/board";
-import { findingsAfter, swapAssignments } from "@/lib/data/assignments";
+import { swapAssignmentsSchema } from "@/lib/board/schema";
+import { findingsAfter, swapAssignments } from "@/lib/assignments/data";
 
 // POST: dispatcher, supervisor. { a: { id, version }, b: { id, version } }: the two workers
 // trade seats in one transaction (the locked write path of a move); 409 when either changed.

@@ -2,9 +2,9 @@ import { db } from "@/lib/db";
 import { ApiError, handler, json, readQuery } from "@/lib/api/http";
 import { requireRole } from "@/lib/auth/session";
 import { CAN_DISPATCH } from "@/lib/auth/roles";
-import { eventsQuerySchema } from "@/lib/validation/board";
-import { eventsSince } from "@/lib/data/events";
-import { pickYard } from "@/lib/data/yards";
+import { eventsQuerySchema } from "@/lib/board/schema";
+import { eventsSince } from "@/lib/board/data-events";
+import { pickYard } from "@/lib/yards/data";
 
 export const dynamic = "force-dynamic";
 

@@ -2,8 +2,8 @@ import { db } from "@/lib/db";
 import { ApiError, handler, json, readJson } from "@/lib/api/http";
 import { idParam } from "@/lib/api/ids";
 import { requireRole } from "@/lib/auth/session";
-import { loadBriefing, modeFor, rebrief, saveBriefing } from "@/lib/data/briefings";
-import { briefingPutSchema } from "@/lib/validation/briefing";
+import { loadBriefing, modeFor, rebrief, saveBriefing } from "@/lib/briefings/data";
+import { briefingPutSchema } from "@/lib/briefings/model";
 
 type P = { orderId: string };
 

@@ -1,6 +1,6 @@
 import { db } from "@/lib/db";
 import { handler, json } from "@/lib/api/http";
-import { calendarFeed } from "@/lib/calendar";
+import { calendarFeed } from "@/lib/workers/data-calendar";
 
 type Params = { token: string };
 

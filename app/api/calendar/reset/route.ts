@@ -1,9 +1,9 @@
 import { db } from "@/lib/db";
 import { ApiError, handler, json, readJson } from "@/lib/api/http";
 import { requireRole } from "@/lib/auth/session";
-import { audit } from "@/lib/data/audit";
-import { calendarUrlFor, newCalendarToken } from "@/lib/calendar";
-import { calendarResetSchema } from "@/lib/validation/time-record";
+import { audit } from "@/lib/audit/data";
+import { calendarUrlFor, newCalendarToken } from "@/lib/workers/data-calendar";
+import { calendarResetSchema } from "@/lib/time/model";
 
 // POST: a lineworker makes a new link for themself; hr and admin for anyone (workerId).
 // The old link stops working at once.

@@ -2,8 +2,8 @@ import { db } from "@/lib/db";
 import { ApiError, handler, json, readJson } from "@/lib/api/http";
 import { idParam } from "@/lib/api/ids";
 import { requireRole } from "@/lib/auth/session";
-import { getCredential, patchCredential } from "@/lib/data/credentials";
-import { credentialPatchSchema } from "@/lib/validation/credential";
+import { getCredential, patchCredential } from "@/lib/credentials/data";
+import { credentialPatchSchema } from "@/lib/credentials/model";
 
 type P = { id: string };
 

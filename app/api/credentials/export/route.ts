@@ -1,10 +1,10 @@
 import { db } from "@/lib/db";
 import { handler, readQuery } from "@/lib/api/http";
 import { requireRole } from "@/lib/auth/session";
-import { listCredentials } from "@/lib/data/credentials";
-import { todayIn } from "@/lib/data/yards";
-import { credentialQuerySchema } from "@/lib/validation/credential";
-import { credentialExportCsv } from "@/lib/validation/credential-csv";
+import { listCredentials } from "@/lib/credentials/data";
+import { todayIn } from "@/lib/yards/data";
+import { credentialQuerySchema } from "@/lib/credentials/model";
+import { credentialExportCsv } from "@/lib/credentials/csv";
 
 // GET: hr, admin, supervisor. The desk's table as CSV, with the same filters as the list.
 // The first four columns are the import's, so an edited export can be imported again.

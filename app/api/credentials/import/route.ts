@@ -1,8 +1,8 @@
 import { db } from "@/lib/db";
 import { handler, json, readJson } from "@/lib/api/http";
 import { requireRole } from "@/lib/auth/session";
-import { importCredentials } from "@/lib/data/credential-import";
-import { importRequestSchema } from "@/lib/validation/credential";
+import { importCredentials } from "@/lib/credentials/data-import";
+import { importRequestSchema } from "@/lib/credentials/model";
 
 // POST: hr, admin. { csv, dryRun }. Every row is checked; nothing is written unless all pass.
 // 200 with the counts when good; 422 with issues [{ line, field, message }] when not.

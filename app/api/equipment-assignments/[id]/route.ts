@@ -7,7 +7,7 @@ import { CAN_DISPATCH } from "@/lib/auth/roles";
 import { moveEquipment, unbookEquipment } from "@/lib/equipment/data";
 import { equipmentMoveSchema, equipmentUnassignSchema } from "@/lib/equipment/model";
 import { readJson } from "@/lib/api/http";
-import { findingsAfterEquipment } from "@/lib/equipment/board";
+import { findingsAfterEquipment } from "@/lib/equipment/data-board";
 
 type P = { id: string };
 

@@ -2,7 +2,7 @@ import { db } from "@/lib/db";
 import { ApiError, handler } from "@/lib/api/http";
 import { idParam } from "@/lib/api/ids";
 import { requireRole } from "@/lib/auth/session";
-import { contentDisposition, readBlob } from "@/lib/files";
+import { contentDisposition, readBlob } from "@/lib/files/data";
 
 type P = { id: string };
 

@@ -3,10 +3,10 @@ import { ApiError, handler, json, readJson } from "@/lib/api/http";
 import { yardScope } from "@/lib/auth/yard-scope";
 import { requireRole } from "@/lib/auth/session";
 import { CAN_DISPATCH } from "@/lib/auth/roles";
-import { audit } from "@/lib/data/audit";
-import { createAssignment, findingsAfter } from "@/lib/data/assignments";
-import { pickYard } from "@/lib/data/yards";
-import { fillAcceptSchema } from "@/lib/validation/fill";
+import { audit } from "@/lib/audit/data";
+import { createAssignment, findingsAfter } from "@/lib/assignments/data";
+import { pickYard } from "@/lib/yards/data";
+import { fillAcceptSchema } from "@/lib/fill/schema";
 import { bookEquipment } from "@/lib/equipment/data";
 
 export const dynamic = "force-dynamic";

@@ -1,8 +1,8 @@
 import { db } from "@/lib/db";
 import { handler, json, readJson } from "@/lib/api/http";
 import { requireRole } from "@/lib/auth/session";
-import { changeOwnPassword } from "@/lib/data/users";
-import { passwordChangeSchema } from "@/lib/validation/user";
+import { changeOwnPassword } from "@/lib/users/data";
+import { passwordChangeSchema } from "@/lib/users/model";
 
 // POST: any signed-in user changes their own password ({ currentPassword, newPassword }).
 // Every session of theirs ends, this one included: they sign in again with the new one.

@@ -3,9 +3,9 @@ import { idParam } from "@/lib/api/ids";
 import { ApiError, handler, json, readJson } from "@/lib/api/http";
 import { yardScope } from "@/lib/auth/yard-scope";
 import { requireRole } from "@/lib/auth/session";
-import { listOrders, parseJson, seriesView } from "@/lib/data/orders";
-import { endSeries, updateSeries } from "@/lib/orders/series";
-import { seriesEditSchema } from "@/lib/validation/order";
+import { listOrders, parseJson, seriesView } from "@/lib/orders/data";
+import { endSeries, updateSeries } from "@/lib/orders/data-series";
+import { seriesEditSchema } from "@/lib/orders/schema";
 
 type Params = { id: string };
 

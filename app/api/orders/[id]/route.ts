@@ -4,8 +4,8 @@ import { idParam } from "@/lib/api/ids";
 import { ApiError, handler, json, readJson, readQuery } from "@/lib/api/http";
 import { yardScope } from "@/lib/auth/yard-scope";
 import { requireRole } from "@/lib/auth/session";
-import { cancelOrder, getOrder, updateOrder } from "@/lib/data/orders";
-import { orderPatchSchema } from "@/lib/validation/order";
+import { cancelOrder, getOrder, updateOrder } from "@/lib/orders/data";
+import { orderPatchSchema } from "@/lib/orders/schema";
 
 type Params = { id: string };
 

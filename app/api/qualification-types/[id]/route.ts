@@ -2,8 +2,8 @@ import { db } from "@/lib/db";
 import { ApiError, handler, json, readJson } from "@/lib/api/http";
 import { idParam } from "@/lib/api/ids";
 import { requireRole } from "@/lib/auth/session";
-import { deleteType, listTypes, updateType } from "@/lib/data/qualification-types";
-import { qualificationTypePatchSchema } from "@/lib/validation/qualification-type";
+import { deleteType, listTypes, updateType } from "@/lib/credentials/data-qualification-types";
+import { qualificationTypePatchSchema } from "@/lib/credentials/qualification-types";
 
 type P = { id: string };
 

@@ -3,8 +3,8 @@ import { idParam } from "@/lib/api/ids";
 import { ApiError, handler, json, readJson } from "@/lib/api/http";
 import { yardScope } from "@/lib/auth/yard-scope";
 import { requireRole } from "@/lib/auth/session";
-import { deleteRotation, listRotations, updateRotation } from "@/lib/data/rotations";
-import { rotationPatchSchema } from "@/lib/validation/rotation";
+import { deleteRotation, listRotations, updateRotation } from "@/lib/rotations/data";
+import { rotationPatchSchema } from "@/lib/rotations/model";
 
 type Params = { id: string };
 // Digits only: "0x1f", "1e3" or " 7" are not another spelling of a record.

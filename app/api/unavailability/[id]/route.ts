@@ -2,8 +2,8 @@ import { db, transact } from "@/lib/db";
 import { idParam } from "@/lib/api/ids";
 import { ApiError, handler, json, readJson } from "@/lib/api/http";
 import { requireRole } from "@/lib/auth/session";
-import { deleteUnavailability, getUnavailability, updateUnavailability } from "@/lib/data/unavailability";
-import { unavailabilityPatchSchema } from "@/lib/validation/unavailability";
+import { deleteUnavailability, getUnavailability, updateUnavailability } from "@/lib/leave/data";
+import { unavailabilityPatchSchema } from "@/lib/leave/model";
 
 type Params = { id: string };
 // Digits only: "0x1f", "1e3" or " 7" are not another spelling of a record.

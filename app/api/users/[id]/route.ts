@@ -2,8 +2,8 @@ import { db } from "@/lib/db";
 import { handler, json, readJson } from "@/lib/api/http";
 import { idParam } from "@/lib/api/ids";
 import { requireRole } from "@/lib/auth/session";
-import { updateUser } from "@/lib/data/users";
-import { userPatchSchema } from "@/lib/validation/user";
+import { updateUser } from "@/lib/users/data";
+import { userPatchSchema } from "@/lib/users/model";
 
 // PATCH (admin): { role?, yardIds?, active?, workerId? }. A role change, new yards or a
 // deactivation end the user's sessions at once; audited (user.role / user.deactivate /

@@ -2,10 +2,10 @@ import { db } from "@/lib/db";
 import { idParam } from "@/lib/api/ids";
 import { ApiError, handler, json, readJson } from "@/lib/api/http";
 import { requireRole } from "@/lib/auth/session";
-import { audit } from "@/lib/data/audit";
-import { boardEvent } from "@/lib/data/events";
-import { getWorkType, saveTemplate } from "@/lib/data/work-types";
-import { crewTemplateSchema } from "@/lib/validation/order";
+import { audit } from "@/lib/audit/data";
+import { boardEvent } from "@/lib/board/data-events";
+import { getWorkType, saveTemplate } from "@/lib/orders/data-work-types";
+import { crewTemplateSchema } from "@/lib/orders/schema";
 
 type Params = { id: string };
 

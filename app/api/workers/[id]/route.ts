@@ -3,8 +3,8 @@ import { ApiError, handler, json, readJson } from "@/lib/api/http";
 import { idParam } from "@/lib/api/ids";
 import { requireRole } from "@/lib/auth/session";
 import { hideForeignContacts } from "@/lib/auth/yard-scope";
-import { getWorker, updateWorker } from "@/lib/data/workers";
-import { workerPatchSchema } from "@/lib/validation/worker";
+import { getWorker, updateWorker } from "@/lib/workers/data";
+import { workerPatchSchema } from "@/lib/workers/model";
 
 type P = { id: string };
 

@@ -7,7 +7,7 @@ import { zodResolver } from "@hookform/resolvers/zod";
 import { useId, useMemo, useState } from "react";
 import { useForm, useWatch } from "react-hook-form";
 import { FieldError, FormAlert, sendJson } from "@/components/form-bits";
-import { GEAR, gearCheckSchema, type GearCheck, type GearCheckValues } from "@/lib/validation/briefing";
+import { GEAR, gearCheckSchema, type GearCheck, type GearCheckValues } from "@/lib/briefings/model";
 
 interface Props {
   orderId: number;

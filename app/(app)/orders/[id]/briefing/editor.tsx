@@ -2,14 +2,14 @@
 
 // The crew lead's briefing form: hazards, drop zone, procedure, energy-source controls, the
 // pole check (pass/fail, notes, photo) with the trade's choices after a failure, and the
-// emergency plan. The same zod schema as the route (lib/validation/briefing.ts).
+// emergency plan. The same zod schema as the route (lib/briefings/model.ts).
 import { zodResolver } from "@hookform/resolvers/zod";
 import { useEffect, useId, useRef, useState } from "react";
 import { Controller, useForm, useWatch, type FieldErrors } from "react-hook-form";
 import { FieldError, FormAlert, sendJson } from "@/components/form-bits";
 import { StateIcon } from "@/components/status";
-import type { BriefingView } from "@/lib/data/briefings";
-import { ACCEPT_ATTR } from "@/lib/validation/file";
+import type { BriefingView } from "@/lib/briefings/data";
+import { ACCEPT_ATTR } from "@/lib/files/model";
 import {
   briefingDataSchema,
   CONTROLS,
@@ -22,9 +22,9 @@ import {
   poleCheckHint,
   type BriefingData,
   type BriefingFormValues,
-} from "@/lib/validation/briefing";
+} from "@/lib/briefings/model";
 import { PoleCite, Section } from "./sheet";
-import { earliestCompletion, fmtEarliest } from "@/lib/briefing/checks";
+import { earliestCompletion, fmtEarliest } from "@/lib/briefings/checks";
 
 export type ScreenView = BriefingView & { mode: "lead" | "crew" | "viewer"; me: number | null };
 

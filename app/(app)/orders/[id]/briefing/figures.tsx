@@ -1,6 +1,6 @@
 import type { Knex } from "knex";
 import { ApproachFigure, FiguresCaution, LiftFiguresView } from "@/components/field-figures";
-import { getOrder } from "@/lib/data/orders";
+import { getOrder } from "@/lib/orders/data";
 import { getLiftPlan } from "@/lib/gear/data";
 import { approachFor, liftFiguresFor } from "@/lib/gear/figures";
 import { isLiftingKind } from "@/lib/gear/lift";

@@ -3,7 +3,7 @@ import { requirePageRole } from "@/lib/auth/session";
 import { START_PAGE } from "@/lib/auth/roles";
 import { db } from "@/lib/db";
 import { ApiError } from "@/lib/api/http";
-import { loadBriefing, modeFor, type Mode } from "@/lib/data/briefings";
+import { loadBriefing, modeFor, type Mode } from "@/lib/briefings/data";
 import { BriefingScreen } from "./screen";
 import { BriefingFigures } from "./figures";
 

@@ -1,8 +1,8 @@
 // The briefing as a read-only sheet: what the crew reads before acknowledging, what dispatch
 // sees, and what prints. No hooks: used inside the client screen.
-import type { BriefingView } from "@/lib/data/briefings";
+import type { BriefingView } from "@/lib/briefings/data";
 import { Badge } from "@/components/status";
-import { CONTROLS, FAIL_ACTIONS, FT_TO_M, GEAR, HAZARDS, POLE_CHECKS, type BriefingData, type GearCheck } from "@/lib/validation/briefing";
+import { CONTROLS, FAIL_ACTIONS, FT_TO_M, GEAR, HAZARDS, POLE_CHECKS, type BriefingData, type GearCheck } from "@/lib/briefings/model";
 import { fmtStamp } from "./when";
 
 const RESULT: Record<string, { tone: "clear" | "block" | "muted"; word: string }> = {

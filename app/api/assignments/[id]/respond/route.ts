@@ -2,8 +2,8 @@ import { db } from "@/lib/db";
 import { idParam } from "@/lib/api/ids";
 import { ApiError, handler, json, readJson } from "@/lib/api/http";
 import { requireRole } from "@/lib/auth/session";
-import { respondSchema } from "@/lib/validation/notify";
-import { respond } from "@/lib/data/responses";
+import { respondSchema } from "@/lib/notify/schema";
+import { respond } from "@/lib/assignments/data-responses";
 
 // A lineworker answers their own assignment on the web (My week); texts use the same respond().
 export const POST = handler<{ id: string }>(async (req, ctx) => {

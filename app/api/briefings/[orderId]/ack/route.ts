@@ -2,8 +2,8 @@ import { db } from "@/lib/db";
 import { handler, json, readJson } from "@/lib/api/http";
 import { idParam } from "@/lib/api/ids";
 import { requireRole } from "@/lib/auth/session";
-import { acknowledge } from "@/lib/data/briefings";
-import { ackSchema } from "@/lib/validation/briefing";
+import { acknowledge } from "@/lib/briefings/data";
+import { ackSchema } from "@/lib/briefings/model";
 
 type P = { orderId: string };
 

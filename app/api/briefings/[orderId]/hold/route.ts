@@ -4,8 +4,8 @@ import { idParam } from "@/lib/api/ids";
 import { yardScope } from "@/lib/auth/yard-scope";
 import { requireRole } from "@/lib/auth/session";
 import { CAN_DISPATCH } from "@/lib/auth/roles";
-import { holdOrder, liftHold, loadBriefing } from "@/lib/data/briefings";
-import { briefingHoldSchema, briefingLiftSchema } from "@/lib/validation/briefing";
+import { holdOrder, liftHold, loadBriefing } from "@/lib/briefings/data";
+import { briefingHoldSchema, briefingLiftSchema } from "@/lib/briefings/model";
 
 type P = { orderId: string };
 

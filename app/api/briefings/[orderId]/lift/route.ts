@@ -2,7 +2,7 @@ import { db } from "@/lib/db";
 import { ApiError, handler, json, readJson } from "@/lib/api/http";
 import { idParam } from "@/lib/api/ids";
 import { requireRole } from "@/lib/auth/session";
-import { loadBriefing, modeFor } from "@/lib/data/briefings";
+import { loadBriefing, modeFor } from "@/lib/briefings/data";
 import { confirmLiftPlan } from "@/lib/gear/data";
 import { liftFiguresFor } from "@/lib/gear/figures";
 import { liftConfirmSchema } from "@/lib/gear/lift";

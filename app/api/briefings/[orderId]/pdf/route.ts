@@ -2,10 +2,10 @@ import { db } from "@/lib/db";
 import { ApiError, handler } from "@/lib/api/http";
 import { idParam } from "@/lib/api/ids";
 import { requireRole } from "@/lib/auth/session";
-import { loadBriefing, modeFor } from "@/lib/data/briefings";
-import { briefingPdf, type PhotoBytes } from "@/lib/briefing/pdf";
-import { contentDisposition, readBlob } from "@/lib/files";
-import { POLE_CHECKS } from "@/lib/validation/briefing";
+import { loadBriefing, modeFor } from "@/lib/briefings/data";
+import { briefingPdf, type PhotoBytes } from "@/lib/briefings/pdf";
+import { contentDisposition, readBlob } from "@/lib/files/data";
+import { POLE_CHECKS } from "@/lib/briefings/model";
 
 type P = { orderId: string };
 

@@ -2,13 +2,13 @@ import { db } from "@/lib/db";
 import { ApiError, handler, json } from "@/lib/api/http";
 import { idParam } from "@/lib/api/ids";
 import { requireRole } from "@/lib/auth/session";
-import { loadBriefing, modeFor } from "@/lib/data/briefings";
-import { readUploadForm, storeUpload } from "@/lib/files";
+import { loadBriefing, modeFor } from "@/lib/briefings/data";
+import { readUploadForm, storeUpload } from "@/lib/files/data";
 
 type P = { orderId: string };
 
 // POST multipart/form-data `file`: a pole-check photo, by the crew lead. The same rules as
-// credential evidence (lib/files.ts): PDF, JPEG or PNG, at most 10 MB, the type read from the
+// credential evidence (lib/files/data.ts): PDF, JPEG or PNG, at most 10 MB, the type read from the
 // bytes with file-type and agreeing with the name. Answers { file }; the lead's next save puts
 // its id on the pole-check item.
 export const POST = handler<P>(async (req, ctx) => {

@@ -2,8 +2,8 @@ import { db } from "@/lib/db";
 import { handler, json, readJson } from "@/lib/api/http";
 import { idParam } from "@/lib/api/ids";
 import { requireRole } from "@/lib/auth/session";
-import { startWork } from "@/lib/data/briefings";
-import { startSchema } from "@/lib/validation/briefing";
+import { startWork } from "@/lib/briefings/data";
+import { startSchema } from "@/lib/briefings/model";
 
 type P = { orderId: string };
 

@@ -2,7 +2,7 @@ import { db } from "@/lib/db";
 import { handler, json } from "@/lib/api/http";
 import { idParam } from "@/lib/api/ids";
 import { requireRole } from "@/lib/auth/session";
-import { adminReset } from "@/lib/data/users";
+import { adminReset } from "@/lib/users/data";
 
 // POST (admin): e-mails the user a one-time link to set a new password (stored hashed,
 // expiring after an hour). The current password keeps working until the link is used.

@@ -2,8 +2,8 @@ import { db } from "@/lib/db";
 import { ApiError, handler } from "@/lib/api/http";
 import { idParam } from "@/lib/api/ids";
 import { requireRole } from "@/lib/auth/session";
-import { briefingPhotoIds, loadBriefing, modeFor } from "@/lib/data/briefings";
-import { contentDisposition, readBlob } from "@/lib/files";
+import { briefingPhotoIds, loadBriefing, modeFor } from "@/lib/briefings/data";
+import { contentDisposition, readBlob } from "@/lib/files/data";
 
 type P = { orderId: string; fileId: string };
 
