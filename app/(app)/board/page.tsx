@@ -1,7 +1,7 @@
 import { contactYards, requirePageRole } from "@/lib/auth/session";
 import { db } from "@/lib/db";
 import { pickYard, tomorrowIn } from "@/lib/yards/data";
-import { boardFor } from "@/lib/board/data-cache";
+import { currentVariant } from "@/lib/board/data-serve";
 import { BoardClient } from "./board-client";
 
 export const metadata = { title: "Board" };

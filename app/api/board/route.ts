@@ -1,41 +1,49 @@
+import { z } from "zod";
 import { db } from "@/lib/db";
 import { ApiError, handler, readQuery } from "@/lib/api/http";
-import { createHash } from "node:crypto";
-import { contactYards, requireRole, type SessionUser } from "@/lib/auth/session";
+import { contactYards, requireRole } from "@/lib/auth/session";
 import { CAN_DISPATCH } from "@/lib/auth/roles";
-import { boardQuerySchema } from "@/lib/validation/board";
-import { pickYard, tomorrowIn } from "@/lib/data/yards";
-import { boardFor } from "@/lib/data/board-cache";
+import { boardQuerySchema } from "@/lib/board/schema";
+import { pickYard, tomorrowIn } from "@/lib/yards/data";
+import { boardAnswer } from "@/lib/board/data-serve";
 
 export const dynamic = "force-dynamic";
 
-async function withoutForeignContacts(user: SessionUser, board: { json: string; etag: string }) {
-  const yards = await contactYards(user);
-  if (yards === "all") return board;
-  const data = JSON.parse(board.json) as { pool?: { yardId: number; phone: string | null }[] };
-  for (const p of data.pool ?? []) if (!yards.includes(Number(p.yardId))) p.phone = null;
-  const etag = `"${createHash("sha1").update(`${board.etag}|${yards.join(",")}`).digest("base64url")}"`;
-  return { json: JSON.stringify(data), etag };
-}
+// Issue 19: `since` (the version the browser holds, from the x-board-version header of an
+// earlier answer) with its `cursor` asks for a patch (lib/board/patch.ts) instead of the board.
+const querySchema = boardQuerySchema
+  .extend({
+    since: z.string().trim().regex(/^[A-Za-z0-9_-]{1,64}$/, "since must be a board version from x-board-version").optional(),
+    cursor: z.coerce.number({ error: "cursor must be a number" }).int().min(0).optional(),
+  })
+  .refine((q) => (q.since === undefined) === (q.cursor === undefined), { path: ["cursor"], message: "since and cursor go together" });
 
 export const GET = handler(async (req) => {
   const user = await requireRole(...CAN_DISPATCH, "admin");
-  const q = readQuery(req, boardQuerySchema);
+  const q = readQuery(req, querySchema);
   const { yard, yards } = await pickYard(db(), user.organisationId, q.yard, user.homeYardId);
   if (!yard || (q.yard && yard.code.toLowerCase() !== q.yard.toLowerCase())) {
     throw new ApiError(404, `No yard with code ${q.yard ?? "(none)"}.`);
   }
   const day = q.date ?? tomorrowIn(yard.timezone);
-  const built = await boardFor(db(), { organisationId: user.organisationId, yard, yards, day });
   // Any yard's board may be read (to borrow a crew), but phone numbers only of workers of the
-  // reader's own yards (issue 15, finding 9): the shared, cached board is narrowed per reader.
-  const board = await withoutForeignContacts(user, built);
+  // reader's own yards (issue 15, finding 9): each reader group gets its own narrowed version,
+  // serialised and compressed once per change (lib/board/data-serve.ts).
+  const readers = await contactYards(user);
+  const since = q.since !== undefined && q.cursor !== undefined ? { version: q.since, cursor: q.cursor } : undefined;
+  const answer = await boardAnswer(db(), { organisationId: user.organisationId, yard, yards, day }, readers, since);
+  const etag = `"${answer.kind === "patch" ? `${q.since}>` : ""}${answer.version}"`;
   const headers: Record<string, string> = {
     "content-type": "application/json",
     "cache-control": "private, no-cache",
-    etag: board.etag,
-    vary: "cookie",
+    etag,
+    vary: "cookie, accept-encoding",
+    "x-board-version": answer.version,
+    "x-board-answer": answer.kind === "patch" ? "patch" : `full; ${answer.reason}`,
   };
-  if (req.headers.get("if-none-match") === board.etag) return new Response(null, { status: 304, headers });
-  return new Response(board.json, { status: 200, headers });
+  if (req.headers.get("if-none-match") === etag) return new Response(null, { status: 304, headers });
+  if (/\bgzip\b/i.test(req.headers.get("accept-encoding") ?? "")) {
+    return new Response(new Uint8Array(answer.body.gzip()), { status: 200, headers: { ...headers, "content-encoding": "gzip" } });
+  }
+  return new Response(answer.body.json, { status: 200, headers });
 });
