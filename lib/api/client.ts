@@ -116,7 +116,10 @@ export interface IssueTarget {
 }
 
 export interface Placed {
-  /** The sentence for the form's alert: the route's own `error`, which names the field. */
+  /**
+   * The sentence for the form's alert: the first placed issue's own words when an issue went on a
+   * field (the field shows it too), else the route's `error` (which names the field by its code).
+   */
   message: string;
   /** The fields that got a message of their own. */
   fields: string[];
@@ -143,7 +146,8 @@ export function placeFailure(form: IssueTarget | null | undefined, failure: ApiF
       }
     }
   }
-  return { message: failure.message, fields, conflict: failure.conflict };
+  const first = fields.length ? failure.issues.find((i) => i.field === fields[0]) : undefined;
+  return { message: first?.message ?? failure.message, fields, conflict: failure.conflict };
 }
 
 /** Old shape for screens not yet moved to apiFetch: never throws, the status says. */

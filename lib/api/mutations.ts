@@ -15,7 +15,7 @@
 // a 409 (offer a reload).
 import { useMutation } from "@tanstack/react-query";
 import { useRouter } from "next/navigation";
-import { useCallback } from "react";
+import { useCallback, useState } from "react";
 import { ApiFailure, apiFetch, asFailure, placeFailure, type IssueTarget } from "./client";
 
 export interface ApiRequest {
@@ -36,6 +36,7 @@ export interface UseApiMutationOptions<TVars, TData> {
 
 export function useApiMutation<TVars = void, TData = any>(opts: UseApiMutationOptions<TVars, TData>) {
   const router = useRouter();
+  const [placedText, setPlacedText] = useState<string | null>(null);
   const mutation = useMutation<TData, ApiFailure, TVars>({
     mutationFn: async (vars) => {
       const r = opts.request(vars);
@@ -51,7 +52,7 @@ export function useApiMutation<TVars = void, TData = any>(opts: UseApiMutationOp
     },
     onError: (err, vars) => {
       const f = asFailure(err);
-      placeFailure(opts.form, f, opts.fields);
+      setPlacedText(placeFailure(opts.form, f, opts.fields).message);
       opts.onFailure?.(f, vars);
     },
   });
@@ -73,7 +74,8 @@ export function useApiMutation<TVars = void, TData = any>(opts: UseApiMutationOp
     submit,
     /** The last run's refusal (cleared by the next run or `reset()`). */
     failure,
-    errorText: failure?.message ?? null,
+    /** The alert's sentence (see placeFailure). */
+    errorText: failure ? (placedText ?? failure.message) : null,
     conflict: failure?.conflict ?? false,
   };
 }

@@ -141,7 +141,8 @@ describe("placeFailure (409/422 onto react-hook-form fields)", () => {
       { name: "title", type: "server", message: "At least 3 characters" },
       { name: "shifts.0.start", type: "server", message: "Pick a start" },
     ]);
-    expect(placed).toEqual({ message: "Invalid title: At least 3 characters", fields: ["title", "shifts.0.start"], conflict: false });
+    // the alert says the first field's problem in its own words (the route's sentence names "title" by its code)
+    expect(placed).toEqual({ message: "At least 3 characters", fields: ["title", "shifts.0.start"], conflict: false });
   });
 
   it("puts a 409 that names its field (a taken employee number) on that field and flags the conflict", async () => {
@@ -175,7 +176,9 @@ describe("placeFailure (409/422 onto react-hook-form fields)", () => {
     const placed = placeFailure(form as never, failure);
     expect(placed.fields).toEqual(["note"]);
     expect(form.calls).toEqual([{ name: "note", type: "server", message: "Too long" }]);
-    expect(placed.message).toBe("Invalid workerId: No such worker");
+    expect(placed.message).toBe("Too long");
+    // nothing placed: the route's own sentence
+    expect(placeFailure(recorder([]) as never, failure).message).toBe("Invalid workerId: No such worker");
   });
 
   it("limits placement to the fields named in `only` (children by dotted prefix)", () => {

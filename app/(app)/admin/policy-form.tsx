@@ -3,8 +3,10 @@
 import { zodResolver } from "@hookform/resolvers/zod";
 import { useForm, type FieldErrors } from "react-hook-form";
 import { useState } from "react";
-import { policyFields, policySchema, type PolicyInput } from "@/lib/validation/policy";
-import { POLICY_FIELD_LABELS, RAISABLE_RULES, RULE_LABELS } from "@/lib/labels/rules";
+import { TextField } from "@/components/form/fields";
+import { useApiMutation } from "@/lib/api/mutations";
+import { policyFields, policySchema, type PolicyInput } from "@/lib/policies/model";
+import { POLICY_FIELD_LABELS, RAISABLE_RULES, RULE_LABELS } from "@/lib/rules/rule-labels";
 
 const FIELDS: { name: Exclude<keyof PolicyInput, "raisedToBlock">; step: string }[] = [
   { name: "minRestHours", step: "0.5" },
@@ -24,27 +26,20 @@ export function PolicyForm({ policy }: { policy: PolicyInput }) {
   const form = useForm<PolicyInput>({ resolver: zodResolver(policySchema) as never, defaultValues: policyFields(policy) });
   const errors = form.formState.errors;
 
-  async function onSubmit(values: PolicyInput) {
-    setStatus(null);
-    try {
-      const res = await fetch("/api/policies", {
-        method: "PUT",
-        headers: { "content-type": "application/json" },
-        body: JSON.stringify(policyFields(values)),
-      });
-      const body = await res.json().catch(() => ({}));
-      if (!res.ok) {
-        for (const issue of body.issues ?? []) {
-          if (issue.field in POLICY_FIELD_LABELS) form.setError(issue.field as keyof PolicyInput, { message: issue.message });
-        }
-        setStatus({ kind: "error", text: `Not saved: ${body.error ?? `the server answered ${res.status}`}` });
-        return;
-      }
+  const save = useApiMutation<PolicyInput, PolicyInput>({
+    request: (values) => ({ url: "/api/policies", method: "PUT", body: policyFields(values) }),
+    form,
+    fields: Object.keys(POLICY_FIELD_LABELS),
+    onSuccess: (body) => {
       form.reset(policyFields(body));
       setStatus({ kind: "saved", text: "Saved. Open boards re-check at once." });
-    } catch {
-      setStatus({ kind: "error", text: "Not saved: the server could not be reached." });
-    }
+    },
+    onFailure: (f) => setStatus({ kind: "error", text: `Not saved: ${f.message}` }),
+  });
+
+  function onSubmit(values: PolicyInput) {
+    setStatus(null);
+    return save.submit(values);
   }
 
   function onInvalid(errs: FieldErrors<PolicyInput>) {
@@ -61,25 +56,14 @@ export function PolicyForm({ policy }: { policy: PolicyInput }) {
   return (
     <form onSubmit={form.handleSubmit(onSubmit, onInvalid)} className="grid gap-3 sm:grid-cols-2" noValidate>
       {FIELDS.map((f) => (
-        <div key={f.name}>
-          <label className="label" htmlFor={f.name}>
-            {POLICY_FIELD_LABELS[f.name]}
-          </label>
-          <input
-            id={f.name}
-            type="number"
-            step={f.step}
-            className="field"
-            {...form.register(f.name, { valueAsNumber: true })}
-            aria-invalid={errors[f.name] ? true : undefined}
-            aria-describedby={errors[f.name] ? `${f.name}-error` : undefined}
-          />
-          {errors[f.name] && (
-            <p id={`${f.name}-error`} className="mt-1 text-xs font-semibold text-block">
-              ✖ {String(errors[f.name]?.message)}
-            </p>
-          )}
-        </div>
+        <TextField
+          key={f.name}
+          type="number"
+          step={f.step}
+          label={POLICY_FIELD_LABELS[f.name]}
+          error={errors[f.name]?.message}
+          {...form.register(f.name, { valueAsNumber: true })}
+        />
       ))}
       <fieldset className="sm:col-span-2">
         <legend className="label">{POLICY_FIELD_LABELS.raisedToBlock}</legend>
@@ -114,7 +98,7 @@ export function PolicyForm({ policy }: { policy: PolicyInput }) {
         )}
       </fieldset>
       <div className="flex items-center gap-3 sm:col-span-2">
-        <button className="btn-primary" type="submit" disabled={form.formState.isSubmitting}>
+        <button className="btn-primary" type="submit" disabled={save.isPending}>
           Save policy
         </button>
         {status && (

@@ -1,14 +1,15 @@
 "use client";
 
 import { zodResolver } from "@hookform/resolvers/zod";
-import { useRouter } from "next/navigation";
 import { useMemo, useState } from "react";
 import { useForm } from "react-hook-form";
-import { FieldError, FormAlert, applyIssues, sendJson } from "@/components/form-bits";
-import { WEEKDAYS, WEEKDAY_LABEL, parseRrule, type WeekdayCode } from "@/lib/recurrence-core";
-import { schedule } from "@/lib/rotations";
-import { fmtLocal } from "@/lib/zoned-format";
-import { rotationSchema, type RotationFormValues } from "@/lib/validation/rotation";
+import { CheckField, FieldError, FormAlert, SelectField, TextField } from "@/components/form/fields";
+import { useApiMutation } from "@/lib/api/mutations";
+import { WEEKDAYS, WEEKDAY_LABEL, parseRrule, type WeekdayCode } from "@/lib/time/recurrence";
+import { schedule } from "@/lib/rotations/data-on-call";
+import { fmtLocal } from "@/lib/time/zoned-format";
+import { rotationSchema, type RotationFormValues } from "@/lib/rotations/model";
+import { TurnOrder } from "./turn-order";
 
 export interface WorkerOption {
   id: number;
@@ -38,12 +39,10 @@ const WEEKLY_RE = /^FREQ=WEEKLY;BYDAY=(MO|TU|WE|TH|FR|SA|SU)$/;
 
 /** Create or edit an on-call rotation; validated with rotationSchema, like POST/PATCH /api/rotations. */
 export function RotationForm({ yards, workers, initial, rotationId, version, onDone }: Props) {
-  const router = useRouter();
-  const [alert, setAlert] = useState<{ tone: "block" | "clear"; text: string } | null>(null);
+  const [saved, setSaved] = useState(false);
   const weekly = WEEKLY_RE.exec(initial.rrule ?? "");
   const [simple, setSimple] = useState(Boolean(weekly) || !initial.rrule);
   const [day, setDay] = useState<WeekdayCode>((weekly?.[1] as WeekdayCode) ?? "MO");
-  const [pick, setPick] = useState<number>(0);
   const form = useForm<RotationFormValues>({ resolver: zodResolver(rotationSchema as never) as never, defaultValues: initial });
   const { register, watch, setValue, formState } = form;
   const errors = formState.errors;
@@ -55,11 +54,6 @@ export function RotationForm({ yards, workers, initial, rotationId, version, onD
   const byId = new Map(workers.map((w) => [w.id, w]));
 
   const setMembers = (ids: number[]) => setValue("memberIds", ids, { shouldDirty: true, shouldValidate: formState.isSubmitted });
-  const move = (i: number, d: -1 | 1) => {
-    const next = [...members];
-    [next[i], next[i + d]] = [next[i + d], next[i]];
-    setMembers(next);
-  };
 
   const preview = useMemo(() => {
     if (!members.length || !/^\d{4}-\d{2}-\d{2}T\d{2}:\d{2}/.test(dtstart) || !yard) return { list: [], problem: null as string | null };
@@ -72,43 +66,37 @@ export function RotationForm({ yards, workers, initial, rotationId, version, onD
     }
   }, [members, dtstart, rrule, yard]);
 
-  async function onSubmit(values: RotationFormValues) {
-    setAlert(null);
-    const r = rotationId
-      ? await sendJson(`/api/rotations/${rotationId}`, "PATCH", { ...values, version })
-      : await sendJson("/api/rotations", "POST", values);
-    if (!r.ok) return setAlert({ tone: "block", text: r.status === 409 ? `${r.body.error}` : applyIssues(form, r.body) });
-    setAlert({ tone: "clear", text: rotationId ? "Rotation saved." : "Rotation created." });
-    router.refresh();
-    onDone?.();
-  }
+  const save = useApiMutation<RotationFormValues>({
+    request: (values) => (rotationId ? { url: `/api/rotations/${rotationId}`, method: "PATCH", body: { ...values, version } } : { url: "/api/rotations", method: "POST", body: values }),
+    form,
+    refresh: true,
+    onSuccess: () => {
+      setSaved(true);
+      onDone?.();
+    },
+  });
 
   const err = (n: keyof RotationFormValues) => errors[n]?.message as string | undefined;
-  const yardWorkers = workers.filter((w) => w.yardId === yardId && !members.includes(w.id));
-  const otherWorkers = workers.filter((w) => w.yardId !== yardId && !members.includes(w.id));
+  const key = rotationId ?? "new";
 
   return (
-    <form onSubmit={form.handleSubmit(onSubmit)} noValidate className="space-y-3">
+    <form
+      onSubmit={form.handleSubmit((v) => {
+        setSaved(false);
+        return save.submit(v);
+      })}
+      noValidate
+      className="space-y-3"
+    >
       <div className="grid gap-3 sm:grid-cols-2">
-        <div>
-          <label className="label" htmlFor={`r-name-${rotationId ?? "new"}`}>
-            Name
-          </label>
-          <input id={`r-name-${rotationId ?? "new"}`} className="field" {...register("name")} />
-          <FieldError msg={err("name")} />
-        </div>
-        <div>
-          <label className="label" htmlFor={`r-yard-${rotationId ?? "new"}`}>
-            Yard
-          </label>
-          <select id={`r-yard-${rotationId ?? "new"}`} className="field" {...register("yardId", { setValueAs: Number })}>
-            {yards.map((y) => (
-              <option key={y.id} value={y.id}>
-                {y.name}
-              </option>
-            ))}
-          </select>
-        </div>
+        <TextField id={`r-name-${key}`} label="Name" error={err("name")} {...register("name")} />
+        <SelectField id={`r-yard-${key}`} label="Yard" error={err("yardId")} {...register("yardId", { setValueAs: Number })}>
+          {yards.map((y) => (
+            <option key={y.id} value={y.id}>
+              {y.name}
+            </option>
+          ))}
+        </SelectField>
       </div>
 
       <fieldset className="space-y-2">
@@ -131,101 +119,38 @@ export function RotationForm({ yards, workers, initial, rotationId, version, onD
           </label>
         </div>
         {simple ? (
-          <div>
-            <label className="label" htmlFor={`r-day-${rotationId ?? "new"}`}>
-              Hand over every
-            </label>
-            <select
-              id={`r-day-${rotationId ?? "new"}`}
-              className="field w-auto"
-              value={day}
-              onChange={(e) => {
-                setDay(e.target.value as WeekdayCode);
-                setValue("rrule", `FREQ=WEEKLY;BYDAY=${e.target.value}`);
-              }}
-            >
-              {WEEKDAYS.map((d) => (
-                <option key={d} value={d}>
-                  {WEEKDAY_LABEL[d]}
-                </option>
-              ))}
-            </select>
-          </div>
-        ) : (
-          <div>
-            <label className="label" htmlFor={`r-rule-${rotationId ?? "new"}`}>
-              RRULE (RFC 5545)
-            </label>
-            <input id={`r-rule-${rotationId ?? "new"}`} className="field font-mono" placeholder="FREQ=DAILY;BYHOUR=7,19" {...register("rrule")} />
-          </div>
-        )}
-        <FieldError msg={err("rrule")} />
-        <div>
-          <label className="label" htmlFor={`r-start-${rotationId ?? "new"}`}>
-            First hand-over ({yard?.timezone})
-          </label>
-          <input id={`r-start-${rotationId ?? "new"}`} type="datetime-local" className="field w-auto" {...register("dtstartLocal")} />
-          <FieldError msg={err("dtstartLocal")} />
-          <p className="mt-1 text-xs text-ink-500">Hand-overs keep this clock time across daylight-saving changes; a time that does not exist that night moves an hour later.</p>
-        </div>
-      </fieldset>
-
-      <div>
-        <p className="label">Turn order</p>
-        <ol className="space-y-1">
-          {members.map((id, i) => {
-            const w = byId.get(id);
-            return (
-              <li key={id} className="flex items-center gap-2 rounded-md border border-rule bg-white px-2 py-1 text-sm">
-                <span className="w-5 text-right font-bold tabular-nums text-ink-500">{i + 1}</span>
-                <span className="flex-1 font-semibold">
-                  {w?.name ?? `Worker ${id}`} <span className="text-xs text-ink-500">{w?.employeeNo}</span>
-                </span>
-                <button type="button" className="btn-quiet px-2 py-1" disabled={i === 0} onClick={() => move(i, -1)} aria-label={`Move ${w?.name} up`}>
-                  ↑
-                </button>
-                <button type="button" className="btn-quiet px-2 py-1" disabled={i === members.length - 1} onClick={() => move(i, 1)} aria-label={`Move ${w?.name} down`}>
-                  ↓
-                </button>
-                <button type="button" className="btn-quiet px-2 py-1" onClick={() => setMembers(members.filter((m) => m !== id))} aria-label={`Remove ${w?.name}`}>
-                  ✕
-                </button>
-              </li>
-            );
-          })}
-        </ol>
-        <div className="mt-2 flex flex-wrap items-center gap-2">
-          <select aria-label="Worker to add" className="field w-auto" value={pick} onChange={(e) => setPick(Number(e.target.value))}>
-            <option value={0}>Add a worker…</option>
-            <optgroup label={`${yard?.name ?? "This yard"}`}>
-              {yardWorkers.map((w) => (
-                <option key={w.id} value={w.id}>
-                  {w.name} ({w.employeeNo})
-                </option>
-              ))}
-            </optgroup>
-            <optgroup label="Other yards">
-              {otherWorkers.map((w) => (
-                <option key={w.id} value={w.id}>
-                  {w.name} ({w.employeeNo}, {w.yardCode})
-                </option>
-              ))}
-            </optgroup>
-          </select>
-          <button
-            type="button"
-            className="btn-quiet"
-            disabled={!pick}
-            onClick={() => {
-              setMembers([...members, pick]);
-              setPick(0);
+          <SelectField
+            id={`r-day-${key}`}
+            label="Hand over every"
+            className="field w-auto"
+            error={err("rrule")}
+            value={day}
+            onChange={(e) => {
+              setDay(e.target.value as WeekdayCode);
+              setValue("rrule", `FREQ=WEEKLY;BYDAY=${e.target.value}`);
             }}
           >
-            Add
-          </button>
-        </div>
-        <FieldError msg={errors.memberIds?.message as string | undefined} />
-      </div>
+            {WEEKDAYS.map((d) => (
+              <option key={d} value={d}>
+                {WEEKDAY_LABEL[d]}
+              </option>
+            ))}
+          </SelectField>
+        ) : (
+          <TextField id={`r-rule-${key}`} label="RRULE (RFC 5545)" className="field font-mono" placeholder="FREQ=DAILY;BYHOUR=7,19" error={err("rrule")} {...register("rrule")} />
+        )}
+        <TextField
+          id={`r-start-${key}`}
+          type="datetime-local"
+          className="field w-auto"
+          label={`First hand-over (${yard?.timezone ?? ""})`}
+          hint="Hand-overs keep this clock time across daylight-saving changes; a time that does not exist that night moves an hour later."
+          error={err("dtstartLocal")}
+          {...register("dtstartLocal")}
+        />
+      </fieldset>
+
+      <TurnOrder members={members} workers={workers} yardId={yardId} yardName={yard?.name} onChange={setMembers} error={errors.memberIds?.message as string | undefined} />
 
       {preview.problem && <FieldError msg={preview.problem} />}
       {preview.list.length > 0 && yard && (
@@ -241,12 +166,11 @@ export function RotationForm({ yards, workers, initial, rotationId, version, onD
         </div>
       )}
 
-      <label className="flex items-center gap-2 text-sm font-semibold">
-        <input type="checkbox" {...register("active")} /> Active (shows on the board)
-      </label>
+      <CheckField id={`r-active-${key}`} label="Active (shows on the board)" error={err("active")} {...register("active")} />
 
-      {alert && <FormAlert tone={alert.tone}>{alert.text}</FormAlert>}
-      <button type="submit" className="btn-primary" disabled={formState.isSubmitting}>
+      {save.errorText && <FormAlert tone="block">{save.errorText}</FormAlert>}
+      {saved && <FormAlert tone="clear">{rotationId ? "Rotation saved." : "Rotation created."}</FormAlert>}
+      <button type="submit" className="btn-primary" disabled={save.isPending}>
         {rotationId ? "Save rotation" : "Create rotation"}
       </button>
     </form>

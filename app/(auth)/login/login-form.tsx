@@ -3,7 +3,9 @@
 import { signIn } from "next-auth/react";
 import { useRouter } from "next/navigation";
 import { useState } from "react";
+import { FormAlert, TextField } from "@/components/form/fields";
 
+/** Sign-in goes through next-auth's own client (signIn), not the app's fetch wrapper. */
 export function LoginForm() {
   const router = useRouter();
   const [error, setError] = useState<string | null>(null);
@@ -30,23 +32,9 @@ export function LoginForm() {
 
   return (
     <form onSubmit={onSubmit} method="post" className="mt-6 space-y-4" noValidate>
-      <div>
-        <label htmlFor="email" className="label">
-          E-mail
-        </label>
-        <input id="email" name="email" type="email" autoComplete="username" required className="field" />
-      </div>
-      <div>
-        <label htmlFor="password" className="label">
-          Password
-        </label>
-        <input id="password" name="password" type="password" autoComplete="current-password" required className="field" />
-      </div>
-      {error && (
-        <p role="alert" className="rounded-md bg-block-bg px-3 py-2 text-sm font-medium text-block">
-          ✖ {error}
-        </p>
-      )}
+      <TextField name="email" type="email" autoComplete="username" required label="E-mail" />
+      <TextField name="password" type="password" autoComplete="current-password" required label="Password" />
+      {error && <FormAlert tone="block">{error}</FormAlert>}
       <button type="submit" className="btn-primary w-full" disabled={busy}>
         {busy ? "Signing in…" : "Sign in"}
       </button>

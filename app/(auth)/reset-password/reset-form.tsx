@@ -2,62 +2,56 @@
 
 import Link from "next/link";
 import { useState } from "react";
+import { useForm } from "react-hook-form";
+import { FormAlert, TextField } from "@/components/form/fields";
+import { apiFetch, asFailure, placeFailure } from "@/lib/api/client";
 
+type Values = { password: string; confirm: string };
+
+/** Set a password from a reset or welcome link (POST /api/password-reset). Signed out: no query client, so apiFetch directly. */
 export function ResetForm({ token }: { token: string }) {
   const [error, setError] = useState<string | null>(null);
   const [done, setDone] = useState(false);
-  const [busy, setBusy] = useState(false);
+  const form = useForm<Values>({ defaultValues: { password: "", confirm: "" } });
+  const errors = form.formState.errors;
 
-  async function onSubmit(e: React.FormEvent<HTMLFormElement>) {
-    e.preventDefault();
-    const f = new FormData(e.currentTarget);
-    if (f.get("password") !== f.get("confirm")) {
-      setError("The two passwords differ.");
-      return;
-    }
-    setBusy(true);
+  async function onSubmit(values: Values) {
     setError(null);
-    const res = await fetch("/api/password-reset", {
-      method: "POST",
-      headers: { "content-type": "application/json" },
-      body: JSON.stringify({ token, password: f.get("password") }),
-    });
-    const data = await res.json().catch(() => ({}));
-    setBusy(false);
-    if (!res.ok) {
-      setError(data.issues?.[0]?.message ?? data.error ?? `The server answered ${res.status}.`);
-      return;
+    try {
+      await apiFetch("/api/password-reset", { method: "POST", body: { token, password: values.password } });
+      setDone(true);
+    } catch (err) {
+      setError(placeFailure(form, asFailure(err), ["password"]).message);
     }
-    setDone(true);
   }
 
   if (done) {
     return (
-      <p role="status" className="mt-4 rounded-md bg-clear-bg px-3 py-2 text-sm font-medium text-clear">
-        ✓ Password set. <Link href="/login" className="underline">Sign in</Link> with it.
-      </p>
+      <div className="mt-4">
+        <FormAlert tone="clear">
+          Password set. <Link href="/login" className="underline">Sign in</Link> with it.
+        </FormAlert>
+      </div>
     );
   }
   return (
-    <form onSubmit={onSubmit} className="mt-6 space-y-4" noValidate>
-      <div>
-        <label htmlFor="password" className="label">
-          New password (12 characters or more)
-        </label>
-        <input id="password" name="password" type="password" autoComplete="new-password" minLength={12} required className="field" />
-      </div>
-      <div>
-        <label htmlFor="confirm" className="label">
-          New password again
-        </label>
-        <input id="confirm" name="confirm" type="password" autoComplete="new-password" minLength={12} required className="field" />
-      </div>
-      {error && (
-        <p role="alert" className="rounded-md bg-block-bg px-3 py-2 text-sm font-medium text-block">
-          ✖ {error}
-        </p>
-      )}
-      <button type="submit" className="btn-primary w-full" disabled={busy}>
+    <form onSubmit={form.handleSubmit(onSubmit)} className="mt-6 space-y-4" noValidate>
+      <TextField
+        type="password"
+        autoComplete="new-password"
+        label="New password (12 characters or more)"
+        error={errors.password?.message}
+        {...form.register("password")}
+      />
+      <TextField
+        type="password"
+        autoComplete="new-password"
+        label="New password again"
+        error={errors.confirm?.message}
+        {...form.register("confirm", { validate: (v, all) => v === all.password || "The two passwords differ." })}
+      />
+      {error && <FormAlert tone="block">{error}</FormAlert>}
+      <button type="submit" className="btn-primary w-full" disabled={form.formState.isSubmitting}>
         Set password
       </button>
     </form>

@@ -1,66 +1,37 @@
 "use client";
 
+import { zodResolver } from "@hookform/resolvers/zod";
 import { signOut } from "next-auth/react";
-import { useState } from "react";
+import { useForm } from "react-hook-form";
+import { FormAlert, TextField } from "@/components/form/fields";
+import { useApiMutation } from "@/lib/api/mutations";
+import { passwordChangeSchema } from "@/lib/users/model";
 
+type Values = { currentPassword: string; newPassword: string; confirm: string };
+
+/** Change one's own password (POST /api/me/password, same schema); every session ends after. */
 export function PasswordForm() {
-  const [error, setError] = useState<string | null>(null);
-  const [done, setDone] = useState(false);
-  const [busy, setBusy] = useState(false);
+  const form = useForm<Values>({ resolver: zodResolver(passwordChangeSchema as never) as never, defaultValues: { currentPassword: "", newPassword: "", confirm: "" } });
+  const { register } = form;
+  const errors = form.formState.errors;
+  const save = useApiMutation<Values>({
+    request: (values) => ({ url: "/api/me/password", method: "POST", body: values }),
+    form,
+    onSuccess: () => {
+      setTimeout(() => void signOut({ callbackUrl: "/login" }), 1500);
+    },
+  });
 
-  async function onSubmit(e: React.FormEvent<HTMLFormElement>) {
-    e.preventDefault();
-    const f = new FormData(e.currentTarget);
-    setBusy(true);
-    setError(null);
-    const res = await fetch("/api/me/password", {
-      method: "POST",
-      headers: { "content-type": "application/json" },
-      body: JSON.stringify({ currentPassword: f.get("current"), newPassword: f.get("next"), confirm: f.get("confirm") }),
-    });
-    const data = await res.json().catch(() => ({}));
-    setBusy(false);
-    if (!res.ok) {
-      setError(data.issues?.[0]?.message ?? data.error ?? `The server answered ${res.status}.`);
-      return;
-    }
-    setDone(true);
-    setTimeout(() => void signOut({ callbackUrl: "/login" }), 1500);
-  }
-
-  if (done) {
-    return (
-      <p role="status" className="rounded-md bg-clear-bg px-3 py-2 text-sm font-medium text-clear">
-        ✓ Password changed. Signing you out: sign in again with the new password.
-      </p>
-    );
+  if (save.isSuccess) {
+    return <FormAlert tone="clear">Password changed. Signing you out: sign in again with the new password.</FormAlert>;
   }
   return (
-    <form onSubmit={onSubmit} className="space-y-4" noValidate>
-      <div>
-        <label htmlFor="current" className="label">
-          Current password
-        </label>
-        <input id="current" name="current" type="password" autoComplete="current-password" required className="field" />
-      </div>
-      <div>
-        <label htmlFor="next" className="label">
-          New password (12 characters or more)
-        </label>
-        <input id="next" name="next" type="password" autoComplete="new-password" minLength={12} required className="field" />
-      </div>
-      <div>
-        <label htmlFor="confirm" className="label">
-          New password again
-        </label>
-        <input id="confirm" name="confirm" type="password" autoComplete="new-password" minLength={12} required className="field" />
-      </div>
-      {error && (
-        <p role="alert" className="rounded-md bg-block-bg px-3 py-2 text-sm font-medium text-block">
-          ✖ {error}
-        </p>
-      )}
-      <button type="submit" className="btn-primary w-full" disabled={busy}>
+    <form onSubmit={form.handleSubmit(save.submit)} className="space-y-4" noValidate>
+      <TextField id="current" type="password" autoComplete="current-password" label="Current password" error={errors.currentPassword?.message} {...register("currentPassword")} />
+      <TextField id="next" type="password" autoComplete="new-password" label="New password (12 characters or more)" error={errors.newPassword?.message} {...register("newPassword")} />
+      <TextField id="confirm" type="password" autoComplete="new-password" label="New password again" error={errors.confirm?.message} {...register("confirm")} />
+      {save.errorText && <FormAlert tone="block">{save.errorText}</FormAlert>}
+      <button type="submit" className="btn-primary w-full" disabled={save.isPending}>
         Change password
       </button>
     </form>

@@ -1,14 +1,14 @@
 "use client";
 
 import { zodResolver } from "@hookform/resolvers/zod";
-import { useRouter } from "next/navigation";
 import { useEffect, useState } from "react";
 import { useForm } from "react-hook-form";
-import { FieldError, FormAlert, applyIssues, sendJson } from "@/components/form-bits";
+import { CheckField, FieldError, FormAlert, TextField } from "@/components/form/fields";
+import { useApiMutation } from "@/lib/api/mutations";
 import { POSITION_LABEL } from "@/lib/format";
-import type { WorkTypeView } from "@/lib/orders/types";
+import type { WorkTypeView } from "@/lib/orders/model";
 import { POSITIONS, type Position } from "@/lib/rules/types";
-import { crewTemplateSchema, type CrewTemplateInput } from "@/lib/validation/order";
+import { crewTemplateSchema, type CrewTemplateInput } from "@/lib/orders/schema";
 
 const RULE_LABEL: Record<string, string> = {
   pole_climb: "climbing",
@@ -21,10 +21,9 @@ const RULE_LABEL: Record<string, string> = {
 
 /** One work type's crew template: default positions (exactly one lead) and minimum crew. */
 export function TemplateForm({ type }: { type: WorkTypeView }) {
-  const router = useRouter();
   const [rows, setRows] = useState<Position[]>(type.positions);
   const [add, setAdd] = useState<Position>("ground");
-  const [msg, setMsg] = useState<{ tone: "block" | "clear"; text: string } | null>(null);
+  const [saved, setSaved] = useState(false);
   const form = useForm<CrewTemplateInput>({
     resolver: zodResolver(crewTemplateSchema as never) as never,
     defaultValues: { name: type.name, minCrew: type.minCrew, digs: type.digs, positions: type.positions },
@@ -36,39 +35,29 @@ export function TemplateForm({ type }: { type: WorkTypeView }) {
   }, [rows, setValue, formState.isSubmitted]);
   const leads = rows.filter((r) => r === "lead").length;
 
-  async function onSubmit(values: CrewTemplateInput) {
-    setMsg(null);
-    const r = await sendJson(`/api/work-types/${type.id}`, "PUT", values);
-    if (!r.ok) return setMsg({ tone: "block", text: applyIssues(form, r.body) });
-    setMsg({ tone: "clear", text: "Saved. New orders of this type start with this crew." });
-    router.refresh();
-  }
+  const save = useApiMutation<CrewTemplateInput>({
+    request: (values) => ({ url: `/api/work-types/${type.id}`, method: "PUT", body: values }),
+    form,
+    refresh: true,
+    onSuccess: () => setSaved(true),
+  });
 
   return (
-    <form onSubmit={form.handleSubmit(onSubmit)} noValidate className="card space-y-3 p-4" aria-label={`Crew template: ${type.name}`}>
+    <form
+      onSubmit={form.handleSubmit((v) => {
+        setSaved(false);
+        return save.submit(v);
+      })}
+      noValidate className="card space-y-3 p-4" aria-label={`Crew template: ${type.name}`}>
       <div className="flex items-baseline justify-between gap-2">
         <p className="text-xs font-bold uppercase tracking-widest text-copper">
           {type.code} · rules read it as {RULE_LABEL[type.ruleType] ?? type.ruleType}
         </p>
       </div>
-      <div>
-        <label className="label" htmlFor={`wt-name-${type.id}`}>
-          Name
-        </label>
-        <input id={`wt-name-${type.id}`} className="field" {...register("name")} />
-        <FieldError msg={errors.name?.message} />
-      </div>
+      <TextField id={`wt-name-${type.id}`} label="Name" error={errors.name?.message} {...register("name")} />
       <div className="flex flex-wrap items-end gap-4">
-        <div className="w-32">
-          <label className="label" htmlFor={`wt-min-${type.id}`}>
-            Minimum crew
-          </label>
-          <input id={`wt-min-${type.id}`} type="number" min={1} max={30} className="field" {...register("minCrew", { valueAsNumber: true })} />
-          <FieldError msg={errors.minCrew?.message} />
-        </div>
-        <label className="flex items-center gap-2 pb-2 text-sm font-semibold">
-          <input type="checkbox" {...register("digs")} /> Digs (needs a locate ticket)
-        </label>
+        <TextField id={`wt-min-${type.id}`} wrapperClassName="w-32" type="number" min={1} max={30} label="Minimum crew" error={errors.minCrew?.message} {...register("minCrew", { valueAsNumber: true })} />
+        <CheckField id={`wt-digs-${type.id}`} wrapperClassName="pb-2" label="Digs (needs a locate ticket)" error={errors.digs?.message} {...register("digs")} />
       </div>
       <div>
         <p className="label">Default positions</p>
@@ -111,8 +100,9 @@ export function TemplateForm({ type }: { type: WorkTypeView }) {
           <p className="mt-1 text-xs font-semibold text-warn">▲ Exactly one lead position is needed (the employee in charge, who holds the job briefing).</p>
         )}
       </div>
-      {msg && <FormAlert tone={msg.tone}>{msg.text}</FormAlert>}
-      <button type="submit" className="btn-primary" disabled={formState.isSubmitting}>
+      {save.errorText && <FormAlert tone="block">{save.errorText}</FormAlert>}
+      {saved && <FormAlert tone="clear">Saved. New orders of this type start with this crew.</FormAlert>}
+      <button type="submit" className="btn-primary" disabled={save.isPending}>
         Save template
       </button>
     </form>
