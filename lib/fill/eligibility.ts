@@ -97,9 +97,16 @@ export class EligibilityProbe {
     });
   }
 
-  /** The position-cache key of an order (its dates, energized, voltage and the driver's licence it needs). */
+  private readonly keys = new WeakMap<WorkOrder, string>();
+
+  /**
+   * The position-cache key of an order (its dates, energized, voltage and the driver's licence
+   * it needs); remembered per order object (the last day is a time-zone conversion, not free).
+   */
   keyOf(order: WorkOrder): string {
-    return positionKey(order, this.timezone, requiredLicenceOf(order, this.equipment));
+    let k = this.keys.get(order);
+    if (k === undefined) this.keys.set(order, (k = positionKey(order, this.timezone, requiredLicenceOf(order, this.equipment))));
+    return k;
   }
 
   private run(checks: typeof RULES, order: WorkOrder, a: Assignment, keep: (f: Finding) => boolean): Finding[] {

@@ -180,3 +180,21 @@ export interface FillResult {
   };
   settings: { timeLimitSeconds: number; gap: number };
 }
+
+/** One step of a running fill, for a progress bar (streamed by POST /api/fill). */
+export interface FillProgress {
+  phase: "eligibility" | "model" | "staffing" | "cost" | "check" | "explain";
+  /** Since the fill started. */
+  elapsedMs: number;
+  /** The phase's current relative gap between the best answer and its bound, when known. */
+  gap: number | null;
+}
+
+export const FILL_PHASES: ReadonlyArray<{ phase: FillProgress["phase"]; label: string }> = [
+  { phase: "eligibility", label: "Checking who may sit where" },
+  { phase: "model", label: "Building the model" },
+  { phase: "staffing", label: "Staffing the orders" },
+  { phase: "cost", label: "Placing people fairly" },
+  { phase: "check", label: "Re-checking the crews" },
+  { phase: "explain", label: "Explaining open seats" },
+];
