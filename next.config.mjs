@@ -37,6 +37,17 @@ const nextConfig = {
     return [
       { source: `/:path((?!${DOWNLOADS}).*)`, headers: [{ key: "Content-Security-Policy", value: csp }] },
       { source: `/:path(${DOWNLOADS}.*)`, headers: [{ key: "Content-Security-Policy", value: downloadCsp }] },
+      // Issue 19: the board route answers with bytes it compressed once per change
+      // (lib/board/data-serve.ts) when its client asks for them (x-board-gzip: 1) and accepts
+      // gzip; this tells Next's own compression that they are already encoded.
+      {
+        source: "/api/board",
+        has: [
+          { type: "header", key: "x-board-gzip", value: "1" },
+          { type: "header", key: "accept-encoding", value: ".*gzip.*" },
+        ],
+        headers: [{ key: "Content-Encoding", value: "gzip" }],
+      },
       {
         source: "/:path*",
         headers: [

@@ -26,7 +26,8 @@ async function fetchBoard(day: string, yard: string, slim = true): Promise<Board
     qs.set("since", base.version);
     qs.set("cursor", String(base.board.cursor));
   }
-  const res = await fetch(`/api/board?${qs}`);
+  // Pre-compressed once per change on the server (app/api/board/route.ts).
+  const res = await fetch(`/api/board?${qs}`, { headers: { "x-board-gzip": "1" } });
   const text = await res.text();
   let body: Record<string, unknown> = {};
   try {

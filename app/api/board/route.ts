@@ -1,3 +1,4 @@
+import { gzipSync } from "node:zlib";
 import { z } from "zod";
 import { db } from "@/lib/db";
 import { ApiError, handler, readQuery } from "@/lib/api/http";
@@ -18,7 +19,14 @@ const querySchema = boardQuerySchema
   })
   .refine((q) => (q.since === undefined) === (q.cursor === undefined), { path: ["cursor"], message: "since and cursor go together" });
 
-export const GET = handler(async (req) => {
+/**
+ * The client asks for pre-compressed answers with `x-board-gzip: 1` (and accepts gzip): then
+ * next.config.mjs marks the response as gzip-encoded for this path, so every answer of this
+ * route, errors included, must be gzip bytes. Without the header Next compresses as usual.
+ */
+const wantsGzip = (req: Request) => req.headers.get("x-board-gzip") === "1" && /gzip/i.test(req.headers.get("accept-encoding") ?? "");
+
+const answer = handler(async (req) => {
   const user = await requireRole(...CAN_DISPATCH, "admin");
   const q = readQuery(req, querySchema);
   const { yard, yards } = await pickYard(db(), user.organisationId, q.yard, user.homeYardId);
@@ -37,13 +45,20 @@ export const GET = handler(async (req) => {
     "content-type": "application/json",
     "cache-control": "private, no-cache",
     etag,
-    vary: "cookie, accept-encoding",
+    vary: "cookie, accept-encoding, x-board-gzip",
     "x-board-version": answer.version,
     "x-board-answer": answer.kind === "patch" ? "patch" : `full; ${answer.reason}`,
   };
   if (req.headers.get("if-none-match") === etag) return new Response(null, { status: 304, headers });
-  if (/\bgzip\b/i.test(req.headers.get("accept-encoding") ?? "")) {
-    return new Response(new Uint8Array(answer.body.gzip()), { status: 200, headers: { ...headers, "content-encoding": "gzip" } });
-  }
+  if (wantsGzip(req)) return new Response(new Uint8Array(answer.body.gzip()), { status: 200, headers: { ...headers, "x-board-encoded": "gzip" } });
   return new Response(answer.body.json, { status: 200, headers });
 });
+
+export async function GET(req: Request, ctx: { params: Promise<Record<string, string>> }) {
+  const res = await answer(req, ctx);
+  if (!wantsGzip(req) || res.headers.get("x-board-encoded") || res.status === 304) return res;
+  // An error answer (401, 404, 422…) for a client that asked for gzip: compressed here.
+  const headers = new Headers(res.headers);
+  headers.delete("content-length");
+  return new Response(new Uint8Array(gzipSync(Buffer.from(await res.arrayBuffer()))), { status: res.status, headers });
+}

@@ -20,7 +20,7 @@ export const dynamic = "force-dynamic";
 // is its board_events id; a reconnecting EventSource sends Last-Event-ID and gets what came
 // after it, once, in order. The session is checked again every RECHECK_MS: a signed-out or
 // deactivated user's stream ends.
-const RECHECK_MS = Number(process.env.BOARD_STREAM_RECHECK_MS ?? 15_000);
+const RECHECK_MS = Number(process.env.BOARD_STREAM_RECHECK_MS ?? 5_000);
 const PING_MS = 15_000;
 /** A stream ends after this long (the browser reconnects with Last-Event-ID). */
 const MAX_MS = 10 * 60_000;
