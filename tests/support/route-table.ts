@@ -317,6 +317,19 @@ export const ROUTES: RouteEntry[] = [
     },
   },
   {
+    // Issue 19: the board's Server-Sent Events; maxMs ends the sample's stream after 300 ms.
+    // Not fuzzed here (a fuzzed query without maxMs would hold a stream open for minutes): its
+    // query's refusals are checked in tests/integration/board-stream.test.ts.
+    method: "GET",
+    route: "/api/board/stream",
+    roles: DA,
+    status: 200,
+    sample: async (fx) => {
+      const max = Number((await fx.db("board_events").max({ id: "id" }).first())?.id ?? 0);
+      return { path: `/api/board/stream?after=${Math.max(0, max - 5)}&date=${fx.day}&yard=${fx.yard.code}&maxMs=300` };
+    },
+  },
+  {
     method: "POST",
     route: "/api/overrides",
     roles: ["supervisor"],
@@ -1153,6 +1166,25 @@ export const ROUTES: RouteEntry[] = [
     audit: "an unknown reset link changes nothing",
     fuzz: "json",
     sample: (fx) => ({ path: "/api/password-reset", body: { token: `unknown-${fx.uniq()}-link-of-route-matrix`, password: "route-matrix-new-26" } }),
+  },
+  // --- supervisor queue and notices (issue 18, point 13) ------------------------------------
+  {
+    method: "GET",
+    route: "/api/queue",
+    roles: ["supervisor"],
+    status: 200,
+    fuzz: "query",
+    sample: (fx) => ({ path: `/api/queue?yard=${fx.yard.code}` }),
+  },
+  {
+    method: "POST",
+    route: "/api/notices/read",
+    roles: ALL_ROLES,
+    status: 200,
+    audit: "marks the caller's own notices read; nothing of the organisation's work changes",
+    yard: "one's own notices belong to no yard",
+    fuzz: "json",
+    sample: () => ({ path: "/api/notices/read", body: { ids: "all" } }),
   },
 ];
 
