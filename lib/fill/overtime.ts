@@ -3,9 +3,8 @@
 // the call-out list goes lowest hours first). Worked time is split at local midnights, so a
 // call-out from 23:00 to 02:00 counts one hour on the first day and two on the next.
 
-import { epochToZonedDate, zonedWallTimeToEpoch } from "@/lib/rules/time";
+import { addDays, epochToZonedDate, zonedWallTimeToEpoch } from "@/lib/rules/time";
 import type { Interval } from "@/lib/rules/types";
-import { addDays } from "@/lib/rules/generate";
 
 export const OVERTIME_WINDOW_DAYS = 28;
 const HOUR = 3_600_000;
