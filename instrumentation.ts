@@ -4,7 +4,7 @@ export async function register() {
     // The TCP peer's address on every request, for the sign-in limit (lib/auth/client-address.ts).
     const { installPeerStamp } = await import("./lib/auth/client-address");
     installPeerStamp();
-    const { startBackground } = await import("./lib/background");
+    const { startBackground } = await import("./lib/jobs/background");
     startBackground();
   }
 }

@@ -6,7 +6,7 @@ import { crewHash } from "@/lib/board/data";
 import { findingsAfter } from "./data";
 import { withConflictRetry } from "@/lib/db";
 import { bumpOrders } from "./data-booking";
-import { boardEvent } from "@/lib/board/data-events";
+import { boardEvent } from "@/lib/events/data";
 
 /**
  * A supervisor accepts one block finding for the crew the order has now. The finding must

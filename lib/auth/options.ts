@@ -6,7 +6,7 @@ import { db, isDbUnavailable } from "@/lib/db";
 import { clientAddress } from "./client-address";
 import { recordSignIn, signInGate } from "./rate-limit";
 import { createSession, liveSessionUser, revokeSession, SESSION_MAX_AGE_SECONDS } from "./sessions";
-import type { Role } from "./roles";
+import type { Role } from "@/lib/users/roles";
 
 export const signInSchema = z.object({
   email: z.string().trim().toLowerCase().email("Enter the e-mail address you sign in with").max(254),

@@ -3,7 +3,7 @@ import { redirect } from "next/navigation";
 import { ApiError } from "@/lib/api/http";
 import { db } from "@/lib/db";
 import { authOptions, type SessionUser } from "./options";
-import { START_PAGE, type Role } from "./roles";
+import { START_PAGE, type Role } from "@/lib/users/roles";
 
 export type { SessionUser };
 

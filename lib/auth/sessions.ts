@@ -1,6 +1,6 @@
 import { createHash, randomBytes } from "node:crypto";
 import type { Knex } from "knex";
-import type { Role } from "./roles";
+import type { Role } from "@/lib/users/roles";
 
 // Server-side sessions (issue 15, finding 4). The signed next-auth token carries a random
 // session id; the database keeps its SHA-256 in user_sessions. Every request checks that the

@@ -3,7 +3,7 @@ import type { Knex } from "knex";
 import type { BoardPayload } from "@/lib/board/model";
 import { markOnCall, prepareBoardDay } from "@/lib/board/data-extras";
 import { loadBoard } from "./data";
-import { latestEventId } from "./data-events";
+import { latestEventId } from "@/lib/events/data";
 import type { Yard } from "@/lib/yards/data";
 
 

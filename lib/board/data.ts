@@ -8,7 +8,7 @@ import type { Assignment, DaySnapshot, Finding, Position, Worker, WorkOrder, Wor
 import { locateWarning } from "@/lib/orders/locate";
 import { attachEquipment, boardEquipment } from "@/lib/equipment/data-snapshot";
 import { attachGear } from "@/lib/gear/data-snapshot";
-import { latestEventId } from "./data-events";
+import { latestEventId } from "@/lib/events/data";
 import { placedElsewhere } from "./data-placed-elsewhere";
 import { getPolicy } from "@/lib/policies/data";
 import { addDays, type Yard } from "@/lib/yards/data";

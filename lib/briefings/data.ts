@@ -15,12 +15,12 @@ import { completionTooEarly, emergencyRoleIssues, RESCUE_CODES, type BriefingFac
 import { ApiError } from "@/lib/api/http";
 import { audit, type Actor } from "@/lib/audit/data";
 import { voltageLabel } from "@/lib/orders/voltage";
-import { boardEvent } from "@/lib/board/data-events";
+import { boardEvent } from "@/lib/events/data";
 import { appPublicUrl } from "@/lib/notify/config";
 import { assertAttachable } from "@/lib/files/data";
 import { toGsm7 } from "@/lib/notify/messages";
 import { enqueue, type OutboxInput } from "@/lib/notify/outbox";
-import type { Role } from "@/lib/auth/roles";
+import type { Role } from "@/lib/users/roles";
 import { POSITION_LABEL } from "@/lib/format";
 import {
   briefingDataSchema,

@@ -1,7 +1,7 @@
 import type { Knex } from "knex";
 import { ApiError } from "@/lib/api/http";
 import { audit, type Actor } from "@/lib/audit/data";
-import { boardEvent } from "@/lib/board/data-events";
+import { boardEvent } from "@/lib/events/data";
 import { listQualificationTypes, type QualificationType } from "./data";
 import { isRuleCode, type QualificationTypeCreate, type QualificationTypePatch } from "@/lib/credentials/qualification-types";
 

@@ -2,13 +2,13 @@ import type { Knex } from "knex";
 import { ApiError } from "@/lib/api/http";
 import { daysBetween } from "@/lib/format";
 import { audit, type Actor } from "@/lib/audit/data";
-import { boardEvent } from "@/lib/board/data-events";
+import { boardEvent } from "@/lib/events/data";
 import { assertAttachable } from "@/lib/files/data";
 import { todayIn } from "@/lib/yards/data";
 import { inView, proposeExpiry, type CredentialCreate, type CredentialPatch, type CredentialView } from "@/lib/credentials/model";
 
 export { inView };
-import type { Role } from "@/lib/auth/roles";
+import type { Role } from "@/lib/users/roles";
 
 export interface CredentialRow {
   id: number;

@@ -1,4 +1,4 @@
-import { ROLES, type Role } from "@/lib/auth/roles";
+import { ROLES, type Role } from "@/lib/users/roles";
 
 /** Who edits the equipment register (issue 16): dispatcher, supervisor, admin. */
 export const CAN_EDIT_EQUIPMENT: Role[] = ["dispatcher", "supervisor", "admin"];

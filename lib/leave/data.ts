@@ -5,10 +5,10 @@ import type { Knex } from "knex";
 import { ApiError } from "@/lib/api/http";
 import { audit, type Actor } from "@/lib/audit/data";
 import { bumpWorkers } from "@/lib/assignments/data-booking";
-import { boardEvent } from "@/lib/board/data-events";
+import { boardEvent } from "@/lib/events/data";
 import { fieldError, instant } from "@/lib/orders/data";
 import { addDays } from "@/lib/yards/data";
-import type { Role } from "@/lib/auth/roles";
+import type { Role } from "@/lib/users/roles";
 import { epochToZonedDate, epochToZonedWallTime } from "@/lib/rules/time";
 import type { UnavailabilityInput, UnavailabilityPatch } from "@/lib/leave/model";
 

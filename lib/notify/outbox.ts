@@ -31,7 +31,7 @@
 // certification refuses one and withConflictRetry runs it again, and the refused claim sent nothing.
 import { randomBytes, randomUUID } from "node:crypto";
 import type { Knex } from "knex";
-import { boardEvent } from "@/lib/board/data-events";
+import { boardEvent } from "@/lib/events/data";
 import { dbHosts, withConflictRetry } from "@/lib/db";
 import { emailAdapter, isPermanentEmailError, type EmailAdapter, type StoredAttachment } from "./email";
 import { isPermanentSmsError, smsAdapter, type SmsAdapter } from "./sms";

@@ -10,7 +10,7 @@
 
 import type { Knex } from "knex";
 import { audit, type Actor } from "@/lib/audit/data";
-import { boardEvent } from "@/lib/board/data-events";
+import { boardEvent } from "@/lib/events/data";
 import { getWorkType } from "@/lib/orders/data-work-types";
 import { ApiError } from "@/lib/api/http";
 import {

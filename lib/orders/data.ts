@@ -1,10 +1,10 @@
 // Work orders on Knex: list, read, create, update, cancel. Times are stored UTC; the API and
 // forms speak wall-clock time in the yard's zone (zonedWallTimeToEpoch / epochToZonedWallTime).
 import type { Knex } from "knex";
-import { assertNoDoubleBooking } from "@/lib/assignments/data-double-booking";
+import { assertNoDoubleBooking } from "@/lib/orders/data-double-booking";
 import { ApiError } from "@/lib/api/http";
 import { audit, type Actor } from "@/lib/audit/data";
-import { boardEvent } from "@/lib/board/data-events";
+import { boardEvent } from "@/lib/events/data";
 import { getWorkType } from "@/lib/orders/data-work-types";
 import { locateWarning } from "@/lib/orders/locate";
 import type { OrderStatus } from "@/lib/orders/status";

@@ -2,9 +2,9 @@
 import type { Knex } from "knex";
 import { ApiError } from "@/lib/api/http";
 import { audit, type Actor } from "@/lib/audit/data";
-import { boardEvent } from "@/lib/board/data-events";
+import { boardEvent } from "@/lib/events/data";
 import { fieldError, instant, yardOf } from "@/lib/orders/data";
-import { recordWorkedTime } from "@/lib/time/data";
+import { recordWorkedTime } from "@/lib/time-records/data";
 import { describeRrule, normaliseLocal, parseRrule } from "@/lib/time/recurrence";
 import { onCallFromMembers, schedule } from "@/lib/rotations/data-on-call";
 import { epochToZonedDate, epochToZonedWallTime } from "@/lib/rules/time";

@@ -3,7 +3,7 @@ import bcrypt from "bcryptjs";
 import type { Knex } from "knex";
 import { ApiError } from "@/lib/api/http";
 import { revokeUserSessions } from "@/lib/auth/sessions";
-import type { Role } from "@/lib/auth/roles";
+import type { Role } from "@/lib/users/roles";
 import { appPublicUrl } from "@/lib/notify/config";
 import { enqueue } from "@/lib/notify/outbox";
 import type { UserCreate, UserPatch } from "@/lib/users/model";

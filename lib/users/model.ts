@@ -1,5 +1,5 @@
 import { z } from "zod";
-import { ROLES } from "@/lib/auth/roles";
+import { ROLES } from "@/lib/users/roles";
 
 // User management (issue 18, point 6) and passwords (issue 15). Shared by routes and forms.
 

@@ -1,7 +1,7 @@
 import { expect, test } from "@playwright/test";
 import { demo, signIn } from "./helpers";
 
-// Each role lands on its own start page (lib/auth/roles.ts START_PAGE).
+// Each role lands on its own start page (lib/users/roles.ts START_PAGE).
 const LANDING: [string, RegExp, string][] = [
   ["dispatcher", /\/board/, "Board"],
   ["supervisor", /\/board/, "Board"],

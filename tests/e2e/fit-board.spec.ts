@@ -204,7 +204,7 @@ test("a digging order whose locate ticket lapses before the day blocks: the card
   const unresolvedBefore = before.findings.filter((f: { level: string }) => f.level === "block").length;
   await expect(page.getByTestId("day-summary")).toContainText(`${unresolvedBefore + after.findings.filter((f: { level: string; workOrderId: string }) => f.level === "block" && f.workOrderId === String(o.id)).length} unresolved block`);
   await expect(page.getByTestId("send-crews")).toBeDisabled();
-  // The server refuses too, naming the rule (lib/notify/send.ts re-checks under the lock).
+  // The server refuses too, naming the rule (lib/assignments/data-send.ts re-checks under the lock).
   const sent = await api.post("/api/send", { data: { date: day, yard: "NOR" } });
   expect(sent.status()).toBe(409);
   expect((await sent.json()).blocks.map((b: { rule: string }) => b.rule)).toContain("LOCATE");

@@ -11,7 +11,7 @@ import fc from "fast-check";
 import knex from "knex";
 import { afterAll, beforeAll, describe, expect, it } from "vitest";
 import { dbConfig } from "@/knexfile";
-import type { Role } from "@/lib/auth/roles";
+import type { Role } from "@/lib/users/roles";
 import { Client } from "../support/client";
 import { streamed } from "../support/raw-http";
 import { isIsoDate } from "@/lib/rules/time";

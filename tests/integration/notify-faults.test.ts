@@ -4,7 +4,7 @@
 // never sending a row twice; a crashed claim checked with the provider. Here, all at once and
 // through the real path: Send crews for two crews while the mail server is down, the SMS
 // provider answers 500 to every first attempt and then goes down for 30 s (5 s by default) —
-// delivered by the running app's own delivery loop (lib/background.ts), nothing driven from
+// delivered by the running app's own delivery loop (lib/jobs/background.ts), nothing driven from
 // the test. After recovery every text and every e-mail arrives exactly once, counted at the fakes.
 import { afterAll, afterEach, beforeAll, describe, expect, it } from "vitest";
 import { as, type Client } from "../support/client";

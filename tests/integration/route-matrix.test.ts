@@ -8,7 +8,7 @@ import knex from "knex";
 import { afterAll, beforeAll, describe, expect, it } from "vitest";
 import { dbConfig } from "@/knexfile";
 import { addDays, todayIn } from "@/lib/yards/data";
-import { ROLES, type Role } from "@/lib/auth/roles";
+import { ROLES, type Role } from "@/lib/users/roles";
 import { Client } from "../support/client";
 import { makeOrder } from "../support/fixtures";
 import { buildFixtures } from "../support/route-fixtures";

@@ -11,7 +11,7 @@ import { getPolicy } from "@/lib/policies/data";
 import { getWorkType } from "@/lib/orders/data-work-types";
 import { newCalendarToken } from "@/lib/workers/data-calendar";
 import { emptyBriefing, type BriefingData } from "@/lib/briefings/model";
-import { ROLES, type Role } from "@/lib/auth/roles";
+import { ROLES, type Role } from "@/lib/users/roles";
 import { as, Client } from "./client";
 import { makeOrder, workerByNo } from "./fixtures";
 import { makeCrewDay } from "./notify";

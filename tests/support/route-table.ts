@@ -3,12 +3,12 @@
 // the route files (nothing missing, nothing stale), walks it for every role and signed out, and
 // checks the audit log; tests/integration/fuzz.test.ts fuzzes the JSON and query entries.
 //
-// Roles come from lib/auth/roles.ts; "public" routes have no session check (health, the SMS
+// Roles come from lib/users/roles.ts; "public" routes have no session check (health, the SMS
 // webhook, the calendar feed, next-auth's own routes). A sample is built per caller from the
 // fixtures (tests/support/route-fixtures.ts): mutations get fresh records for every allowed
 // caller, so each one can succeed and be checked for its audit row.
 import type { Knex } from "knex";
-import type { Role } from "@/lib/auth/roles";
+import type { Role } from "@/lib/users/roles";
 import type { Client } from "./client";
 
 export type Method = "GET" | "POST" | "PUT" | "PATCH" | "DELETE";

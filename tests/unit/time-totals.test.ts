@@ -1,5 +1,5 @@
 import { describe, expect, it } from "vitest";
-import { weekStart, weekTotals, type TimeRecordView } from "@/lib/time/data";
+import { weekStart, weekTotals, type TimeRecordView } from "@/lib/time-records/data";
 import { zonedWallTimeToEpoch } from "@/lib/rules/time";
 
 // Week totals on the Time page: daily and weekly hours and overtime beyond the policy's regular

@@ -2,7 +2,7 @@ import Link from "next/link";
 import { requirePageRole } from "@/lib/auth/session";
 import { db } from "@/lib/db";
 import { PageHeader } from "@/components/status";
-import { ROLE_LABEL, type Role } from "@/lib/auth/roles";
+import { ROLE_LABEL, type Role } from "@/lib/users/roles";
 import { getPolicy } from "@/lib/policies/data";
 import { PolicyForm } from "./policy-form";
 

@@ -1,5 +1,5 @@
 import { requirePageRole } from "@/lib/auth/session";
-import { CAN_KEEP_CREDENTIALS } from "@/lib/auth/roles";
+import { CAN_KEEP_CREDENTIALS } from "@/lib/users/roles";
 import { db } from "@/lib/db";
 import { listCredentials } from "@/lib/credentials/data";
 import { listTypes } from "@/lib/credentials/data-qualification-types";

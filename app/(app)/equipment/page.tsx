@@ -1,5 +1,5 @@
 import { requirePageRole } from "@/lib/auth/session";
-import { ROLES } from "@/lib/auth/roles";
+import { ROLES } from "@/lib/users/roles";
 import { db } from "@/lib/db";
 import { PageHeader, SafetyNote } from "@/components/status";
 import { listEquipment } from "@/lib/equipment/data";

@@ -5,7 +5,7 @@ import { useState } from "react";
 import { useForm } from "react-hook-form";
 import { FormAlert, TextField } from "@/components/form/fields";
 import { useApiMutation } from "@/lib/api/mutations";
-import { manualTimeRecordSchema, type ManualTimeRecordValues } from "@/lib/time/model";
+import { manualTimeRecordSchema, type ManualTimeRecordValues } from "@/lib/time-records/model";
 
 /** A manual time entry (reason required), validated like POST /api/time-records. */
 export function ManualForm({ workerId, defaults }: { workerId: number; defaults: { start: string; end: string } }) {

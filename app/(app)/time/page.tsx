@@ -4,7 +4,7 @@ import { db } from "@/lib/db";
 import { Badge, PageHeader } from "@/components/status";
 import { ActionButton } from "@/components/form-bits";
 import { calendarUrlFor } from "@/lib/workers/data-calendar";
-import { workerWeek, weekStart, type TimeKind } from "@/lib/time/data";
+import { workerWeek, weekStart, type TimeKind } from "@/lib/time-records/data";
 import { listWorkers } from "@/lib/workers/data";
 import { addDays, todayIn } from "@/lib/yards/data";
 import { fmtDate } from "@/lib/format";

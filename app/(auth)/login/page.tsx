@@ -1,6 +1,6 @@
 import { redirect } from "next/navigation";
 import { currentUser } from "@/lib/auth/session";
-import { START_PAGE } from "@/lib/auth/roles";
+import { START_PAGE } from "@/lib/users/roles";
 import { LoginForm } from "./login-form";
 import { Logo } from "@/components/logo";
 

@@ -2,7 +2,7 @@ import { db } from "@/lib/db";
 import { handler, json, readJson } from "@/lib/api/http";
 import { yardScope } from "@/lib/auth/yard-scope";
 import { requireRole } from "@/lib/auth/session";
-import { CAN_DISPATCH } from "@/lib/auth/roles";
+import { CAN_DISPATCH } from "@/lib/users/roles";
 import { createAssignmentSchema } from "@/lib/board/schema";
 import { createAssignment, findingsAfter } from "@/lib/assignments/data";
 

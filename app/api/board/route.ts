@@ -3,7 +3,7 @@ import { z } from "zod";
 import { db } from "@/lib/db";
 import { ApiError, handler, readQuery } from "@/lib/api/http";
 import { contactYards, requireRole } from "@/lib/auth/session";
-import { CAN_DISPATCH } from "@/lib/auth/roles";
+import { CAN_DISPATCH } from "@/lib/users/roles";
 import { boardQuerySchema } from "@/lib/board/schema";
 import { pickYard, tomorrowIn } from "@/lib/yards/data";
 import { boardAnswer } from "@/lib/board/data-serve";

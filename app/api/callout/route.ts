@@ -2,12 +2,12 @@ import { db } from "@/lib/db";
 import { ApiError, handler, json, readJson, readQuery } from "@/lib/api/http";
 import { contactWorkerIds, yardScope } from "@/lib/auth/yard-scope";
 import { requireRole } from "@/lib/auth/session";
-import { CAN_DISPATCH } from "@/lib/auth/roles";
+import { CAN_DISPATCH } from "@/lib/users/roles";
 import { createAssignment, findingsAfter } from "@/lib/assignments/data";
 import { listYards } from "@/lib/yards/data";
 import { calloutList } from "@/lib/fill/callout";
 import { loadFillProblem } from "@/lib/fill/load";
-import { sendCrews } from "@/lib/notify/send";
+import { sendCrews } from "@/lib/assignments/data-send";
 import { calloutPlaceSchema, calloutQuerySchema } from "@/lib/fill/schema";
 
 export const dynamic = "force-dynamic";

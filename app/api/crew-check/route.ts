@@ -1,6 +1,6 @@
 import { ApiError, handler, json, readBodyText } from "@/lib/api/http";
 import { requireRole } from "@/lib/auth/session";
-import { CAN_DISPATCH } from "@/lib/auth/roles";
+import { CAN_DISPATCH } from "@/lib/users/roles";
 import { parseDayInput } from "@/lib/rules/input";
 import { crewCheckReport } from "@/lib/rules/report";
 

@@ -2,10 +2,10 @@ import { db } from "@/lib/db";
 import { handler, json, readJson } from "@/lib/api/http";
 import { yardScope } from "@/lib/auth/yard-scope";
 import { requireRole } from "@/lib/auth/session";
-import { CAN_DISPATCH } from "@/lib/auth/roles";
+import { CAN_DISPATCH } from "@/lib/users/roles";
 import { bookEquipment } from "@/lib/equipment/data";
 import { equipmentAssignSchema } from "@/lib/equipment/model";
-import { findingsAfterEquipment } from "@/lib/equipment/data-board";
+import { findingsAfterEquipment } from "@/lib/assignments/data-equipment-findings";
 
 // POST: put a truck on a work order (the board's drop). 409 when it is on an overlapping
 // order, 422 when it is out of service.

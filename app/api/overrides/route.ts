@@ -2,7 +2,7 @@ import { db } from "@/lib/db";
 import { ApiError, handler, json, readJson } from "@/lib/api/http";
 import { yardScope } from "@/lib/auth/yard-scope";
 import { requireRole } from "@/lib/auth/session";
-import { CAN_OVERRIDE } from "@/lib/auth/roles";
+import { CAN_OVERRIDE } from "@/lib/users/roles";
 import { overrideSchema } from "@/lib/board/schema";
 import { createOverride } from "@/lib/assignments/data-overrides";
 

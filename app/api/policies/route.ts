@@ -4,7 +4,7 @@ import { requireRole } from "@/lib/auth/session";
 import { getPolicy, savePolicy } from "@/lib/policies/data";
 import { policySchema } from "@/lib/policies/model";
 import { audit } from "@/lib/audit/data";
-import { boardEvent } from "@/lib/board/data-events";
+import { boardEvent } from "@/lib/events/data";
 
 export const GET = handler(async () => {
   const user = await requireRole("admin", "dispatcher", "supervisor", "hr");

@@ -2,9 +2,9 @@ import { db } from "@/lib/db";
 import { handler, json, readJson } from "@/lib/api/http";
 import { yardScope } from "@/lib/auth/yard-scope";
 import { requireRole } from "@/lib/auth/session";
-import { CAN_DISPATCH } from "@/lib/auth/roles";
+import { CAN_DISPATCH } from "@/lib/users/roles";
 import { sendCrewsSchema } from "@/lib/notify/schema";
-import { sendCrews } from "@/lib/notify/send";
+import { sendCrews } from "@/lib/assignments/data-send";
 
 export const dynamic = "force-dynamic";
 

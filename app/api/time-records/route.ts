@@ -2,8 +2,8 @@ import { db, transact } from "@/lib/db";
 import { ApiError, handler, json, readJson, readQuery } from "@/lib/api/http";
 import { yardScope } from "@/lib/auth/yard-scope";
 import { requireRole } from "@/lib/auth/session";
-import { createManualRecord, workerWeek } from "@/lib/time/data";
-import { manualTimeRecordSchema, timeQuerySchema } from "@/lib/time/model";
+import { createManualRecord, workerWeek } from "@/lib/time-records/data";
+import { manualTimeRecordSchema, timeQuerySchema } from "@/lib/time-records/model";
 
 // GET ?workerId=&week=YYYY-MM-DD: one worker's week with daily and weekly totals and overtime.
 // Dispatcher, supervisor, hr, admin: anyone; a lineworker: only themself.

@@ -2,7 +2,7 @@ import { db } from "@/lib/db";
 import { ApiError, handler, json, readJson } from "@/lib/api/http";
 import { requireRole } from "@/lib/auth/session";
 import { audit } from "@/lib/audit/data";
-import { boardEvent } from "@/lib/board/data-events";
+import { boardEvent } from "@/lib/events/data";
 import { listWorkTypes, saveTemplate } from "@/lib/orders/data-work-types";
 import { crewTemplatesSchema } from "@/lib/orders/schema";
 

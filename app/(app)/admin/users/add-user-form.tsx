@@ -2,7 +2,7 @@
 
 import { useForm } from "react-hook-form";
 import { ChoiceGroup, SelectField, TextField } from "@/components/form/fields";
-import { ROLES, ROLE_LABEL, type Role } from "@/lib/auth/roles";
+import { ROLES, ROLE_LABEL, type Role } from "@/lib/users/roles";
 import type { IssueTarget } from "@/lib/api/client";
 
 interface Yard {

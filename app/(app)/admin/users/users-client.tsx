@@ -4,7 +4,7 @@ import { useState } from "react";
 import { FormAlert } from "@/components/form/fields";
 import { placeFailure, type IssueTarget } from "@/lib/api/client";
 import { useApiMutation } from "@/lib/api/mutations";
-import { ROLES, ROLE_LABEL, type Role } from "@/lib/auth/roles";
+import { ROLES, ROLE_LABEL, type Role } from "@/lib/users/roles";
 import type { UserView } from "@/lib/users/data";
 import { AddUserForm } from "./add-user-form";
 

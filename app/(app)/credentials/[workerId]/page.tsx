@@ -1,7 +1,7 @@
 import Link from "next/link";
 import { notFound, redirect } from "next/navigation";
 import { requirePageRole } from "@/lib/auth/session";
-import { CAN_KEEP_CREDENTIALS } from "@/lib/auth/roles";
+import { CAN_KEEP_CREDENTIALS } from "@/lib/users/roles";
 import { db } from "@/lib/db";
 import { workerCredentials } from "@/lib/credentials/data";
 import { listTypes } from "@/lib/credentials/data-qualification-types";

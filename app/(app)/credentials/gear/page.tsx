@@ -1,6 +1,6 @@
 import Link from "next/link";
 import { requirePageRole } from "@/lib/auth/session";
-import { CAN_KEEP_CREDENTIALS } from "@/lib/auth/roles";
+import { CAN_KEEP_CREDENTIALS } from "@/lib/users/roles";
 import { db } from "@/lib/db";
 import { listYards } from "@/lib/yards/data";
 import { listGear } from "@/lib/gear/data";

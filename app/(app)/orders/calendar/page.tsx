@@ -10,7 +10,7 @@ import { STATUS_LABEL, STATUS_TONE } from "@/lib/orders/status";
 import type { OrderListItem } from "@/lib/orders/model";
 import { ensureOccurrences } from "@/lib/orders/data-occurrences";
 import { isIsoDate } from "@/lib/rules/time";
-import { weekStart } from "@/lib/time/data";
+import { weekStart } from "@/lib/time-records/data";
 import { OrderFilters, statusFilter } from "../filters";
 
 export const metadata = { title: "Orders calendar" };

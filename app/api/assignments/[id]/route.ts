@@ -3,7 +3,7 @@ import { idParam } from "@/lib/api/ids";
 import { handler, json, readJson } from "@/lib/api/http";
 import { yardScope } from "@/lib/auth/yard-scope";
 import { requireRole } from "@/lib/auth/session";
-import { CAN_DISPATCH } from "@/lib/auth/roles";
+import { CAN_DISPATCH } from "@/lib/users/roles";
 import { moveAssignmentSchema, removeAssignmentSchema } from "@/lib/board/schema";
 import { findingsAfter, moveAssignment, removeAssignment } from "@/lib/assignments/data";
 

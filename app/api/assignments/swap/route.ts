@@ -2,7 +2,7 @@ import { db } from "@/lib/db";
 import { handler, json, readJson } from "@/lib/api/http";
 import { requireRole } from "@/lib/auth/session";
 import { yardScope } from "@/lib/auth/yard-scope";
-import { CAN_DISPATCH } from "@/lib/auth/roles";
+import { CAN_DISPATCH } from "@/lib/users/roles";
 import { swapAssignmentsSchema } from "@/lib/board/schema";
 import { findingsAfter, swapAssignments } from "@/lib/assignments/data";
 

@@ -1,9 +1,9 @@
 import { db } from "@/lib/db";
 import { ApiError, handler, json, readQuery } from "@/lib/api/http";
 import { requireRole } from "@/lib/auth/session";
-import { CAN_DISPATCH } from "@/lib/auth/roles";
+import { CAN_DISPATCH } from "@/lib/users/roles";
 import { eventsQuerySchema } from "@/lib/board/schema";
-import { eventsSince } from "@/lib/board/data-events";
+import { eventsSince } from "@/lib/events/data";
 import { pickYard } from "@/lib/yards/data";
 
 export const dynamic = "force-dynamic";

@@ -4,12 +4,12 @@ import { getToken } from "next-auth/jwt";
 import { db } from "@/lib/db";
 import { ApiError, handler, readQuery } from "@/lib/api/http";
 import { canAccessYard, requireRole, requireYardAccess } from "@/lib/auth/session";
-import { CAN_DISPATCH } from "@/lib/auth/roles";
+import { CAN_DISPATCH } from "@/lib/users/roles";
 import { useSecureCookies } from "@/lib/auth/options";
 import { liveSessionUser } from "@/lib/auth/sessions";
 import { calendarDay } from "@/lib/time/days";
 import { pickYard } from "@/lib/yards/data";
-import { eventsSince } from "@/lib/board/data-events";
+import { eventsSince } from "@/lib/events/data";
 import { subscribe, toHubEvent, type HubEvent } from "@/lib/board/data-stream";
 
 export const runtime = "nodejs";

@@ -3,7 +3,7 @@ import { ApiError, handler, json, readJson } from "@/lib/api/http";
 import { requireRole } from "@/lib/auth/session";
 import { audit } from "@/lib/audit/data";
 import { calendarUrlFor, newCalendarToken } from "@/lib/workers/data-calendar";
-import { calendarResetSchema } from "@/lib/time/model";
+import { calendarResetSchema } from "@/lib/time-records/model";
 
 // POST: a lineworker makes a new link for themself; hr and admin for anyone (workerId).
 // The old link stops working at once.

@@ -3,11 +3,11 @@ import { handler, json, readQuery } from "@/lib/api/http";
 import { idParam } from "@/lib/api/ids";
 import { yardScope } from "@/lib/auth/yard-scope";
 import { requireRole } from "@/lib/auth/session";
-import { CAN_DISPATCH } from "@/lib/auth/roles";
+import { CAN_DISPATCH } from "@/lib/users/roles";
 import { moveEquipment, unbookEquipment } from "@/lib/equipment/data";
 import { equipmentMoveSchema, equipmentUnassignSchema } from "@/lib/equipment/model";
 import { readJson } from "@/lib/api/http";
-import { findingsAfterEquipment } from "@/lib/equipment/data-board";
+import { findingsAfterEquipment } from "@/lib/assignments/data-equipment-findings";
 
 type P = { id: string };
 

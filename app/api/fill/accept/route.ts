@@ -2,7 +2,7 @@ import { db } from "@/lib/db";
 import { ApiError, handler, json, readJson } from "@/lib/api/http";
 import { yardScope } from "@/lib/auth/yard-scope";
 import { requireRole } from "@/lib/auth/session";
-import { CAN_DISPATCH } from "@/lib/auth/roles";
+import { CAN_DISPATCH } from "@/lib/users/roles";
 import { audit } from "@/lib/audit/data";
 import { createAssignment, findingsAfter } from "@/lib/assignments/data";
 import { pickYard } from "@/lib/yards/data";

@@ -1,7 +1,7 @@
 import twilio from "twilio";
 import { db } from "@/lib/db";
 import { handler, readBodyText } from "@/lib/api/http";
-import { handleInbound } from "@/lib/notify/inbound";
+import { handleInbound } from "@/lib/assignments/data-inbound";
 import { inboundWebhookUrl } from "@/lib/notify/config";
 
 export const dynamic = "force-dynamic";

@@ -3,7 +3,7 @@ import { idParam } from "@/lib/api/ids";
 import { handler, json } from "@/lib/api/http";
 import { yardScope } from "@/lib/auth/yard-scope";
 import { requireRole } from "@/lib/auth/session";
-import { deleteRecord } from "@/lib/time/data";
+import { deleteRecord } from "@/lib/time-records/data";
 
 type Params = { id: string };
 

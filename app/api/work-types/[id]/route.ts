@@ -3,7 +3,7 @@ import { idParam } from "@/lib/api/ids";
 import { ApiError, handler, json, readJson } from "@/lib/api/http";
 import { requireRole } from "@/lib/auth/session";
 import { audit } from "@/lib/audit/data";
-import { boardEvent } from "@/lib/board/data-events";
+import { boardEvent } from "@/lib/events/data";
 import { getWorkType, saveTemplate } from "@/lib/orders/data-work-types";
 import { crewTemplateSchema } from "@/lib/orders/schema";
 

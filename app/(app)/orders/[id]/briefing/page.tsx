@@ -1,6 +1,6 @@
 import { notFound, redirect } from "next/navigation";
 import { requirePageRole } from "@/lib/auth/session";
-import { START_PAGE } from "@/lib/auth/roles";
+import { START_PAGE } from "@/lib/users/roles";
 import { db } from "@/lib/db";
 import { ApiError } from "@/lib/api/http";
 import { loadBriefing, modeFor, type Mode } from "@/lib/briefings/data";

@@ -3,8 +3,8 @@ import { idParam } from "@/lib/api/ids";
 import { handler, json } from "@/lib/api/http";
 import { yardScope } from "@/lib/auth/yard-scope";
 import { requireRole } from "@/lib/auth/session";
-import { CAN_DISPATCH } from "@/lib/auth/roles";
-import { resendAssignment } from "@/lib/notify/send";
+import { CAN_DISPATCH } from "@/lib/users/roles";
+import { resendAssignment } from "@/lib/assignments/data-send";
 
 // Queues a fresh text and e-mail for one assignment already sent.
 export const POST = handler<{ id: string }>(async (_req, ctx) => {

@@ -2,8 +2,8 @@
 // then the pure choice in ./fill.ts.
 import type { Knex } from "knex";
 import type { FillProblem } from "@/lib/fill/types";
-import { listEquipment } from "./data";
-import { proposeTrucks, withTrucks, type TruckProposal } from "./fill";
+import { listEquipment } from "@/lib/equipment/data";
+import { proposeTrucks, withTrucks, type TruckProposal } from "@/lib/equipment/fill";
 
 export async function fillTrucks(db: Knex, organisationId: number, problem: FillProblem): Promise<{ problem: FillProblem; trucks: TruckProposal[] }> {
   const ids = new Set(problem.orders.map((o) => o.id));

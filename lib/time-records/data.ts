@@ -4,12 +4,12 @@ import type { Knex } from "knex";
 import { ApiError } from "@/lib/api/http";
 import { audit, type Actor } from "@/lib/audit/data";
 import { bumpWorkers } from "@/lib/assignments/data-booking";
-import { boardEvent } from "@/lib/board/data-events";
+import { boardEvent } from "@/lib/events/data";
 import { getPolicy } from "@/lib/policies/data";
 import { fieldError, instant } from "@/lib/orders/data";
 import { addDays, todayIn } from "@/lib/yards/data";
 import { epochToZonedDate, epochToZonedWallTime, zonedWallTimeToEpoch } from "@/lib/rules/time";
-import type { ManualTimeRecordInput } from "@/lib/time/model";
+import type { ManualTimeRecordInput } from "@/lib/time-records/model";
 
 type Q = Knex | Knex.Transaction;
 const HOUR_MS = 3_600_000;

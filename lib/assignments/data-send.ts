@@ -24,14 +24,14 @@ import { ApiError } from "@/lib/api/http";
 import { audit, type Actor } from "@/lib/audit/data";
 import { loadBoard, unresolvedBlocks } from "@/lib/board/data";
 import { bumpOrders } from "@/lib/assignments/data-booking";
-import { boardEvent } from "@/lib/board/data-events";
+import { boardEvent } from "@/lib/events/data";
 import { withConflictRetry } from "@/lib/db";
 import { pickYard } from "@/lib/yards/data";
 import { prepareBoardDay } from "@/lib/board/data-extras";
-import { appPublicUrl } from "./config";
-import { jobEmail, jobSms, removalSms, type JobFacts, type OutboundKind } from "./messages";
+import { appPublicUrl } from "@/lib/notify/config";
+import { jobEmail, jobSms, removalSms, type JobFacts, type OutboundKind } from "@/lib/notify/messages";
 import { unitsForOrders } from "@/lib/equipment/data";
-import { enqueue, pokeDelivery, type OutboxInput } from "./outbox";
+import { enqueue, pokeDelivery, type OutboxInput } from "@/lib/notify/outbox";
 
 const TX = { isolationLevel: "read committed" as const };
 
