@@ -1,7 +1,9 @@
 import Link from "next/link";
 import { requirePageRole } from "@/lib/auth/session";
-import { ROLE_LABEL, START_PAGE } from "@/lib/auth/roles";
+import { ROLE_LABEL, START_PAGE } from "@/lib/users/roles";
 import { navFor } from "@/lib/auth/nav";
+import { db } from "@/lib/db";
+import { unreadNotices } from "@/lib/notices/data";
 import { Logo } from "@/components/logo";
 import { NavLinks } from "@/components/shell/nav-links";
 import { SignOutButton } from "@/components/shell/sign-out-button";
@@ -9,7 +11,9 @@ import { Providers } from "@/components/shell/providers";
 
 export default async function AppLayout({ children }: { children: React.ReactNode }) {
   const user = await requirePageRole();
-  const items = navFor(user.role).map(({ href, label }) => ({ href, label }));
+  // Issue 18, point 13: unread notices (lapsed overrides) show as a count on the queue's link.
+  const unread = user.role === "supervisor" ? await unreadNotices(db(), user.id) : 0;
+  const items = navFor(user.role).map(({ href, label }) => ({ href, label: href === "/queue" && unread ? `${label} (${unread})` : label }));
   return (
     <div className="flex min-h-screen flex-col">
       <header className="no-print bg-ink text-paper">

@@ -3,7 +3,9 @@ import { ApiError } from "@/lib/api/http";
 import { audit, type Actor } from "@/lib/audit/data";
 import { withConflictRetry } from "@/lib/db";
 import { bumpOrders } from "./data-booking";
-import { boardEvent } from "@/lib/board/data-events";
+import { boardEvent } from "@/lib/events/data";
+import { crewHash } from "@/lib/board/data";
+import { lapseOverrides } from "./data-lapses";
 
 // A worker's answer to an assignment, by text or on My week: the one state machine.
 //
@@ -101,6 +103,14 @@ export async function respond(db: Knex | Knex.Transaction, input: RespondInput):
       // The crew changed: stale board writes get a 409, and overrides given for the old crew
       // stop matching (loadBoard compares the crew hash).
       await trx("work_orders").where({ id: order.id }).increment("version", 1).update({ updated_at: now });
+      // Issue 18, point 13: overrides given for the old crew lapse now, and their authors are told.
+      const seats = await trx("assignments").where({ work_order_id: order.id }).whereNotNull("holds_position").select("position_id", "worker_id");
+      const who = await trx("workers").where({ id: a.worker_id }).first("first_name", "last_name");
+      await lapseOverrides(trx, order.id, crewHash(seats.map((s) => ({ positionId: s.position_id, workerId: s.worker_id }))), {
+        change: { kind: "declined", worker: who ? `${who.first_name} ${who.last_name}` : "A crew member" },
+        byUserId: null,
+        byName: null,
+      });
     }
     const outcome = input.answer === "confirm" ? ("confirmed" as const) : ("declined" as const);
     await audit(trx, input.actor ?? null, order.organisation_id, `assignment.${outcome === "confirmed" ? "confirm" : "decline"}`, "assignment", a.id, {

@@ -8,7 +8,8 @@ import { audit, type Actor } from "@/lib/audit/data";
 import { buildSnapshot, crewHash, liveAssignments, orderQuery, type OrderRow } from "@/lib/board/data";
 import { refreshBriefingState } from "@/lib/briefings/data";
 import { bumpWorkers } from "./data-booking";
-import { boardEvent } from "@/lib/board/data-events";
+import { boardEvent } from "@/lib/events/data";
+import { lapseOverrides, type CrewChangeBy } from "./data-lapses";
 
 // Assignment writes. Each runs in one READ COMMITTED transaction that locks the orders it
 // touches (in id order) and then the worker, so two dispatchers placing the same person, or
@@ -135,19 +136,18 @@ async function newReplyCode(trx: Knex.Transaction): Promise<string> {
 }
 
 /** After a crew changes: bump the order's version and lapse overrides given for another crew. */
-async function crewChanged(trx: Knex.Transaction, orderId: number) {
+async function crewChanged(trx: Knex.Transaction, orderId: number, by: CrewChangeBy) {
   const seats = await trx("assignments").where({ work_order_id: orderId }).whereNotNull("holds_position").select("position_id", "worker_id");
   const hash = crewHash(seats.map((s) => ({ positionId: s.position_id, workerId: s.worker_id })));
   await trx("work_orders").where({ id: orderId }).increment("version", 1).update({ updated_at: new Date() });
-  const lapsed = await trx("overrides")
-    .where({ work_order_id: orderId })
-    .whereNull("lapsed_at")
-    .whereNot("crew_hash", hash)
-    .update({ lapsed_at: new Date() });
+  // Issue 18, point 13: the supervisor who gave a lapsing override is told (notice + e-mail).
+  const lapsed = await lapseOverrides(trx, orderId, hash, by);
   // A new crew member has not acknowledged the briefing yet: the order is no longer "briefed".
   await refreshBriefingState(trx, orderId);
   return { hash, lapsed };
 }
+
+const changedBy = (user: SessionActor, change: CrewChangeBy["change"]): CrewChangeBy => ({ change, byUserId: user.id ?? null, byName: user.name ?? null });
 
 /** Deadlocks and Galera certification failures: retried with jitter, counted, then 409/503. */
 const withRetry = <T>(fn: () => Promise<T>) => withConflictRetry(fn, "assignment");
@@ -191,7 +191,7 @@ export async function createAssignment(
         reply_code: await newReplyCode(trx),
         created_by: user.id,
       });
-      const { lapsed } = await crewChanged(trx, order.id);
+      const { lapsed } = await crewChanged(trx, order.id, changedBy(user, { kind: "placed", worker: name, position: seat.position }));
       await audit(trx, user, user.organisationId, "assignment.create", "assignment", id, {
         order: order.number,
         position: seat.position,
@@ -266,7 +266,8 @@ export async function moveAssignment(
           created_by: user.id,
         });
       }
-      const lapsed = (await crewChanged(trx, from.id)).lapsed + (to.id !== from.id ? (await crewChanged(trx, to.id)).lapsed : 0);
+      const moved = changedBy(user, { kind: "moved", worker: name, position: target.position, fromOrder: from.number, toOrder: to.number });
+      const lapsed = (await crewChanged(trx, from.id, moved)).lapsed + (to.id !== from.id ? (await crewChanged(trx, to.id, moved)).lapsed : 0);
       await audit(trx, user, user.organisationId, "assignment.move", "assignment", id, {
         worker: name,
         workerId: worker.id,
@@ -307,7 +308,8 @@ export async function removeAssignment(
           .where({ id: assignmentId })
           .update({ status: "removed", holds_position: null, version: locked.version + 1, updated_at: new Date() });
       }
-      const { lapsed } = await crewChanged(trx, order.id);
+      const off = await trx("workers").where({ id: locked.worker_id }).first("first_name", "last_name");
+      const { lapsed } = await crewChanged(trx, order.id, changedBy(user, { kind: "removed", worker: off ? `${off.first_name} ${off.last_name}` : "a worker" }));
       await audit(trx, user, user.organisationId, "assignment.remove", "assignment", assignmentId, {
         order: order.number,
         workerId: locked.worker_id,
@@ -436,7 +438,8 @@ export async function swapAssignments(
       };
       const newA = await place(la, seatB);
       const newB = await place(lb, seatA);
-      const lapsed = (await crewChanged(trx, oa.id)).lapsed + (ob.id !== oa.id ? (await crewChanged(trx, ob.id)).lapsed : 0);
+      const swapped = changedBy(user, { kind: "swapped", a: nameOf(la.worker_id), b: nameOf(lb.worker_id) });
+      const lapsed = (await crewChanged(trx, oa.id, swapped)).lapsed + (ob.id !== oa.id ? (await crewChanged(trx, ob.id, swapped)).lapsed : 0);
       await audit(trx, user, user.organisationId, "assignment.swap", "assignment", newA, {
         a: { worker: nameOf(la.worker_id), workerId: la.worker_id, from: { order: oa.number, position: seatA.position }, to: { order: ob.number, position: seatB.position } },
         b: { worker: nameOf(lb.worker_id), workerId: lb.worker_id, from: { order: ob.number, position: seatB.position }, to: { order: oa.number, position: seatA.position } },

@@ -1,5 +1,5 @@
 import { fakesEnabled } from "@/lib/notify/config";
-import type { Role } from "./roles";
+import type { Role } from "@/lib/users/roles";
 
 export interface NavItem {
   href: string;
@@ -21,6 +21,7 @@ export const NAV: NavItem[] = [
   { href: "/roster", label: "Roster", roles: ["hr", "admin", "dispatcher", "supervisor"] },
   { href: "/leave", label: "Leave", roles: ["hr", "supervisor", "dispatcher", "admin", "lineworker"] },
   { href: "/time", label: "Time", roles: ["dispatcher", "supervisor", "hr", "admin", "lineworker"] },
+  { href: "/queue", label: "Queue", roles: ["supervisor"] },
   { href: "/audit", label: "Audit", roles: ["supervisor", "admin"] },
   { href: "/admin", label: "Admin", roles: ["admin"] },
   { href: "/phone", label: "Phone simulator", roles: ["dispatcher", "supervisor", "admin"], fakesOnly: true },
