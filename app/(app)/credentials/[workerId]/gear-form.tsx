@@ -1,0 +1,56 @@
+"use client";
+
+import { useForm } from "react-hook-form";
+import { FormAlert, SelectField, TextField } from "@/components/form/fields";
+import { useApiMutation } from "@/lib/api/mutations";
+import { GEAR_CLASSES, GEAR_KIND_LABEL, GEAR_KINDS, classLabel } from "@/lib/gear/model";
+
+type Values = { kind: string; class: string; size: string; serial: string; testedOn: string; issuedOn: string };
+
+/** Record a pair of rubber gloves or sleeves (POST /api/gear); the route checks it and names the field. */
+export function GearForm({ workerId, today, onDone, onCancel }: { workerId: number; today: string; onDone: () => void; onCancel: () => void }) {
+  const form = useForm<Values>({ defaultValues: { kind: "rubber_gloves", class: "2", size: "", serial: "", testedOn: today, issuedOn: today } });
+  const { register } = form;
+  const e = form.formState.errors;
+  const save = useApiMutation<Values>({
+    request: (v) => ({ url: "/api/gear", method: "POST", body: { workerId, ...v, size: v.size || null, issuedOn: v.issuedOn || null } }),
+    form,
+    refresh: true,
+    onSuccess: onDone,
+  });
+  return (
+    <form onSubmit={form.handleSubmit(save.submit)} className="card mb-3 grid gap-3 p-4 sm:grid-cols-3" aria-label="Record rubber goods" noValidate>
+      {save.errorText && (
+        <div className="sm:col-span-3">
+          <FormAlert tone="block">{save.errorText}</FormAlert>
+        </div>
+      )}
+      <SelectField label="Kind" error={e.kind?.message} {...register("kind")}>
+        {GEAR_KINDS.map((k) => (
+          <option key={k} value={k}>
+            {GEAR_KIND_LABEL[k]}
+          </option>
+        ))}
+      </SelectField>
+      <SelectField label="Class" error={e.class?.message} {...register("class")}>
+        {GEAR_CLASSES.map((c) => (
+          <option key={c} value={c}>
+            {classLabel(c)}
+          </option>
+        ))}
+      </SelectField>
+      <TextField label="Size" maxLength={10} error={e.size?.message} {...register("size")} />
+      <TextField label="Serial or label" required error={e.serial?.message} {...register("serial")} />
+      <TextField type="date" max={today} label="Last electrical test" error={e.testedOn?.message} {...register("testedOn")} />
+      <TextField type="date" label="Issued" error={e.issuedOn?.message} {...register("issuedOn")} />
+      <div className="flex gap-2 sm:col-span-3">
+        <button type="submit" className="btn-primary" disabled={save.isPending}>
+          {save.isPending ? "Saving…" : "Save"}
+        </button>
+        <button type="button" className="btn-quiet" onClick={onCancel}>
+          Cancel
+        </button>
+      </div>
+    </form>
+  );
+}
