@@ -72,9 +72,9 @@ export interface FillHooks {
 
 export async function fill(problem: FillProblem, settingsIn: Partial<FillSettings> = {}, hooks: FillHooks = {}): Promise<FillResult> {
   const t0 = performance.now();
-  const run = eligibility(problem, { ...DEFAULT_SETTINGS, ...settingsIn }, t0, hooks);
+  const run = createRun(problem, settingsIn, hooks, t0);
   await checkpoint(run, "eligibility");
-  stepEligibility(run);
+  runEligibility(run);
 
   await checkpoint(run, "model");
   let t = performance.now();
@@ -111,7 +111,8 @@ export async function fill(problem: FillProblem, settingsIn: Partial<FillSetting
 }
 
 /** The run's shared state: the engine's index, the pool, the orders with open seats (not yet probed). */
-function eligibility(problem: FillProblem, s: FillRun["s"], t0: number, hooks: FillHooks): FillRun {
+export function createRun(problem: FillProblem, settingsIn: Partial<FillSettings> = {}, hooks: FillHooks = {}, t0 = performance.now()): FillRun {
+  const s = { ...DEFAULT_SETTINGS, ...settingsIn };
   const ix = new SnapshotIndex(problem.snapshot);
   const pool = problem.workers.filter((w) => ix.workers.has(w.id));
   const poolById = new Map<string, FillWorker>(pool.map((w) => [w.id, w]));
@@ -142,7 +143,7 @@ function eligibility(problem: FillProblem, s: FillRun["s"], t0: number, hooks: F
 }
 
 /** Step 1: who may sit where, the orders no crew can staff, and how the rest relate. */
-function stepEligibility(run: FillRun) {
+export function runEligibility(run: FillRun) {
   run.eligiblePairs = markEligible(run.ctxs, run.pool, run.ix, run.probe);
   for (const c of run.ctxs) c.impossible = staticImpossibility(c, run.ix);
   run.timings.eligibilityMs = performance.now() - run.t0; // with the index and the probe's copies

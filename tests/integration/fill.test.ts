@@ -172,3 +172,85 @@ describe("call-out list", () => {
     expect(bad.body.issues[0].field).toBe("positionId");
   });
 });
+
+// Issue 19: the streamed answer (progress lines, then the proposal) and cancel. Lines are
+// newline-delimited JSON (one object per line; the format the NDJSON spec describes, common practice).
+describe("POST /api/fill streamed (Accept: application/x-ndjson)", () => {
+  const lines = async (res: Response, stopAfter?: (msg: { type: string }) => boolean) => {
+    const out: Array<Record<string, any>> = [];
+    const reader = res.body!.pipeThrough(new TextDecoderStream()).getReader();
+    let buf = "";
+    for (;;) {
+      const { done, value } = await reader.read();
+      if (done) break;
+      buf += value;
+      let nl: number;
+      while ((nl = buf.indexOf("\n")) >= 0) {
+        const msg = JSON.parse(buf.slice(0, nl));
+        buf = buf.slice(nl + 1);
+        out.push(msg);
+        if (stopAfter?.(msg)) {
+          await reader.cancel();
+          return out;
+        }
+      }
+    }
+    return out;
+  };
+
+  it("streams each step in order, then the same proposal as the plain answer, and writes nothing", async () => {
+    const o = await makeOrder(db, { offsetDays: 173, workType: "pole_climb", positions: ["climber", "observer", "ground", "lead"] });
+    const c = await as("dispatcher");
+    const before = await counts();
+    const res = await c.fetch("/api/fill", {
+      method: "POST",
+      headers: { "content-type": "application/json", accept: "application/x-ndjson" },
+      body: JSON.stringify({ date: o.day, yard: "NOR", timeLimitSeconds: 10, gap: 0 }),
+    });
+    expect(res.status).toBe(200);
+    expect(res.headers.get("content-type")).toMatch(/application\/x-ndjson/);
+    const msgs = await lines(res);
+    const progress = msgs.filter((m) => m.type === "progress");
+    const phases = progress.map((m) => m.phase);
+    expect(phases[0]).toBe("eligibility");
+    expect(phases).toContain("explain");
+    const elapsed = progress.map((m) => m.elapsedMs);
+    expect(elapsed).toEqual([...elapsed].sort((a, b) => a - b));
+    const last = msgs[msgs.length - 1];
+    expect(last.type).toBe("result");
+    const mine = last.preview.proposals.filter((p: { orderId: number }) => p.orderId === o.id);
+    expect(mine).toHaveLength(4);
+    expect(last.preview.status).toBe("Optimal");
+    expect(await counts()).toEqual(before);
+  });
+
+  it("refuses bad input before streaming (422 naming the field), and another role (403)", async () => {
+    const c = await as("dispatcher");
+    const bad = await c.fetch("/api/fill", { method: "POST", headers: { "content-type": "application/json", accept: "application/x-ndjson" }, body: JSON.stringify({ date: "tomorrow", yard: "NOR" }) });
+    expect(bad.status).toBe(422);
+    expect(JSON.stringify(await bad.json())).toMatch(/date/);
+    const crew = await as("lineworker");
+    const no = await crew.fetch("/api/fill", { method: "POST", headers: { "content-type": "application/json", accept: "application/x-ndjson" }, body: JSON.stringify({ date: "2030-01-01", yard: "NOR" }) });
+    expect(no.status).toBe(403);
+  });
+
+  it("cancelled mid-run: the client stops reading, nothing is written, and the next fill answers normally", async () => {
+    const o = await makeOrder(db, { offsetDays: 175, workType: "bucket", positions: ["lead", "aerial", "ground", "driver"] });
+    const c = await as("dispatcher");
+    const before = await counts();
+    const ac = new AbortController();
+    const res = await c.fetch("/api/fill", {
+      method: "POST",
+      headers: { "content-type": "application/json", accept: "application/x-ndjson" },
+      body: JSON.stringify({ date: o.day, yard: "NOR", timeLimitSeconds: 10 }),
+      signal: ac.signal,
+    });
+    const got = await lines(res, (m) => m.type === "progress");
+    expect(got[0]).toMatchObject({ type: "progress", phase: "eligibility" });
+    ac.abort();
+    expect(await counts()).toEqual(before);
+    const again = await c.json("/api/fill", "POST", { date: o.day, yard: "NOR", timeLimitSeconds: 10 });
+    expect(again.status).toBe(200);
+    expect(await counts()).toEqual(before);
+  });
+});
