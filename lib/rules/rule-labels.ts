@@ -38,6 +38,13 @@ export const RULE_LABELS: Record<string, RuleLabel> = {
   DOUBLE_BOOKED: { name: "Double booked", meaning: "One worker on two overlapping orders." },
   UNAVAILABLE: { name: "Unavailable", meaning: "Leave, training or sickness covers part of the order." },
   LOCATE: { name: "Locate ticket", meaning: "An order that digs has a locate ticket valid through its last day." },
+  RUBBER_GOODS: {
+    name: "Rubber gloves and sleeves",
+    meaning: "Climber, bucket and lead seats on energized work have gloves rated for the voltage and in test.",
+  },
+  EQUIPMENT: { name: "Truck", meaning: "The truck the work needs is on the order; an aerial device near energized parts is insulated and tested." },
+  EQUIPMENT_BOOKED: { name: "Truck double booked", meaning: "One truck on two overlapping orders." },
+  RIGGING: { name: "Rigging", meaning: "A planned lift stays within the working load limit of the block, the line and each sling leg." },
 };
 
 export function ruleName(code: string): string {

@@ -1186,6 +1186,15 @@ export const ROUTES: RouteEntry[] = [
     fuzz: "json",
     sample: () => ({ path: "/api/notices/read", body: { ids: "all" } }),
   },
+  // --- the printable day sheet (issue 18) ---------------------------------------------------
+  {
+    method: "GET",
+    route: "/api/day-sheet",
+    roles: DA,
+    status: 200,
+    fuzz: "query",
+    sample: (fx) => ({ path: `/api/day-sheet?date=${fx.day}&yard=${fx.yard.code}` }),
+  },
 ];
 
 export const routeKey = (method: string, route: string) => `${method} ${route}`;
