@@ -8,6 +8,7 @@
 //   placeFailure(form, failure)                 → puts the issues (422, or a 409 that names a
 //                                                  field) on react-hook-form fields with
 //                                                  setError; returns the sentence for the alert
+//   apiUpload(url, body, onProgress)            → the same, with upload progress (XMLHttpRequest)
 //   sendJson(url, method, body)                 → the older never-throwing shape { ok, status,
 //                                                  body }, kept for the board, fill panel and
 //                                                  briefing screens until they move over
@@ -101,6 +102,31 @@ export async function apiFetch<T = unknown>(url: string, init: ApiInit = {}): Pr
   const r = await exchange(url, init);
   if (!r.ok) throw new ApiFailure(r.status, r.body && typeof r.body === "object" ? (r.body as ErrorBody) : {});
   return r.body as T;
+}
+
+/**
+ * A JSON POST that reports its upload progress (XMLHttpRequest does; fetch does not), with the
+ * same answers as apiFetch: the body on 2xx, ApiFailure otherwise.
+ */
+export function apiUpload<T = unknown>(url: string, body: unknown, onProgress: (fraction: number) => void, method = "POST"): Promise<T> {
+  return new Promise((resolve, reject) => {
+    const xhr = new XMLHttpRequest();
+    xhr.open(method, url);
+    xhr.setRequestHeader("content-type", "application/json");
+    xhr.upload.onprogress = (e) => e.lengthComputable && onProgress(e.loaded / e.total);
+    xhr.onload = () => {
+      let parsed: unknown = null;
+      try {
+        parsed = xhr.responseText ? JSON.parse(xhr.responseText) : null;
+      } catch {
+        parsed = { error: xhr.responseText.slice(0, 200) };
+      }
+      if (xhr.status >= 200 && xhr.status < 300) resolve(parsed as T);
+      else reject(new ApiFailure(xhr.status, parsed && typeof parsed === "object" ? (parsed as ErrorBody) : {}));
+    };
+    xhr.onerror = () => reject(new ApiFailure(0, { error: UNREACHABLE }));
+    xhr.send(JSON.stringify(body));
+  });
 }
 
 /** Any thrown value as an ApiFailure (a programming error becomes status -1 with its message). */

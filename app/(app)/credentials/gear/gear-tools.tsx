@@ -2,75 +2,30 @@
 
 import { useRouter } from "next/navigation";
 import { useState } from "react";
+import { TextAreaField, TextField } from "@/components/form/fields";
+import { RemindersButton } from "@/components/reminders-button";
+import { useApiMutation } from "@/lib/api/mutations";
 import { GEAR_CSV_COLUMNS } from "@/lib/gear/model";
 
 type Issue = { line: number; field: string; message: string };
 
 /** HR's "Send test reminders now" for rubber goods (never twice per item and day). */
 export function GearReminders() {
-  const [busy, setBusy] = useState(false);
-  const [msg, setMsg] = useState<{ ok: boolean; text: string } | null>(null);
-  async function send() {
-    setBusy(true);
-    setMsg(null);
-    try {
-      const res = await fetch("/api/gear/reminders", { method: "POST" });
-      const body = await res.json();
-      if (!res.ok) setMsg({ ok: false, text: body.error ?? "Not sent." });
-      else
-        setMsg({
-          ok: true,
-          text: [`${body.reminders} reminder${body.reminders === 1 ? "" : "s"} queued`, body.alreadySent ? `${body.alreadySent} already sent today` : null, body.noEmail ? `${body.noEmail} with no e-mail on file` : null]
-            .filter(Boolean)
-            .join(" · ") + ".",
-        });
-    } catch {
-      setMsg({ ok: false, text: "The server did not answer; nothing was sent." });
-    } finally {
-      setBusy(false);
-    }
-  }
-  return (
-    <div className="flex flex-wrap items-center gap-2">
-      {msg && (
-        <span role="status" className={`text-sm ${msg.ok ? "text-clear" : "text-block"}`}>
-          {msg.ok ? "✓ " : "✖ "}
-          {msg.text}
-        </span>
-      )}
-      <button type="button" className="btn-quiet" onClick={send} disabled={busy}>
-        {busy ? "Sending…" : "Send test reminders now"}
-      </button>
-    </div>
-  );
+  return <RemindersButton url="/api/gear/reminders" label="Send test reminders now" />;
 }
 
 /** CSV import: check first (dry run), then import; all or nothing, with each line's problems. */
 export function GearImport() {
   const router = useRouter();
   const [csv, setCsv] = useState("");
-  const [busy, setBusy] = useState(false);
-  const [result, setResult] = useState<{ ok: boolean; text: string; issues: Issue[] } | null>(null);
-
-  async function run(dryRun: boolean) {
-    setBusy(true);
-    setResult(null);
-    try {
-      const res = await fetch("/api/gear/import", { method: "POST", headers: { "content-type": "application/json" }, body: JSON.stringify({ csv, dryRun }) });
-      const body = await res.json();
-      if (!res.ok) {
-        setResult({ ok: false, text: body.error ?? "Not imported.", issues: body.issues ?? [] });
-        return;
-      }
-      const counts = `${body.created} new, ${body.updated} changed, ${body.unchanged} unchanged`;
-      setResult({ ok: true, text: dryRun ? `The file checks out: ${counts}. Nothing written yet.` : `Imported: ${counts}.`, issues: [] });
+  const run = useApiMutation<boolean, { created: number; updated: number; unchanged: number }>({
+    request: (dryRun) => ({ url: "/api/gear/import", method: "POST", body: { csv, dryRun } }),
+    onSuccess: (_b, dryRun) => {
       if (!dryRun) router.refresh();
-    } catch {
-      setResult({ ok: false, text: "The server did not answer; nothing was imported.", issues: [] });
-    } finally {
-      setBusy(false);
-    }
-  }
+    },
+  });
+  const counts = run.data ? `${run.data.created} new, ${run.data.updated} changed, ${run.data.unchanged} unchanged` : "";
+  const lineIssues = (run.failure?.body.issues ?? []) as Issue[];
 
   return (
     <section className="card mt-6 p-4" aria-labelledby="gear-import-h">
@@ -81,39 +36,36 @@ export function GearImport() {
         Columns: {GEAR_CSV_COLUMNS.join(", ")} (an export imports as it is). Rows are matched by serial; a new serial is a new item. Nothing is written unless
         every row is valid.
       </p>
-      <label className="text-sm">
-        <span className="label">File</span>
-        <input
-          type="file"
-          accept=".csv,text/csv"
-          className="field"
-          onChange={async (e) => {
-            const f = e.target.files?.[0];
-            if (f) setCsv(await f.text());
-          }}
-        />
-      </label>
-      <label className="mt-2 block text-sm">
-        <span className="label">Or paste the rows</span>
-        <textarea className="field font-mono" rows={5} value={csv} onChange={(e) => setCsv(e.target.value)} name="csv" />
-      </label>
+      <TextField
+        id="gear-csv-file"
+        label="File"
+        type="file"
+        accept=".csv,text/csv"
+        onChange={async (e) => {
+          const f = e.target.files?.[0];
+          if (f) setCsv(await f.text());
+        }}
+      />
+      <TextAreaField id="gear-csv" wrapperClassName="mt-2" label="Or paste the rows" className="field font-mono" rows={5} value={csv} onChange={(e) => setCsv(e.target.value)} name="csv" />
       <div className="mt-2 flex gap-2">
-        <button type="button" className="btn-quiet" disabled={busy || !csv} onClick={() => run(true)}>
+        <button type="button" className="btn-quiet" disabled={run.isPending || !csv} onClick={() => run.submit(true)}>
           Check
         </button>
-        <button type="button" className="btn-primary" disabled={busy || !csv} onClick={() => run(false)}>
+        <button type="button" className="btn-primary" disabled={run.isPending || !csv} onClick={() => run.submit(false)}>
           Import
         </button>
       </div>
-      {result && (
-        <div role={result.ok ? "status" : "alert"} className={`mt-2 text-sm ${result.ok ? "text-clear" : "text-block"}`}>
-          <p>
-            {result.ok ? "✓ " : "✖ "}
-            {result.text}
-          </p>
-          {result.issues.length > 0 && (
+      {run.isSuccess && (
+        <p role="status" className="mt-2 text-sm text-clear">
+          ✓ {run.variables ? `The file checks out: ${counts}. Nothing written yet.` : `Imported: ${counts}.`}
+        </p>
+      )}
+      {run.failure && (
+        <div role="alert" className="mt-2 text-sm text-block">
+          <p>✖ {run.failure.message}</p>
+          {lineIssues.length > 0 && (
             <ul className="mt-1 list-disc pl-5">
-              {result.issues.slice(0, 50).map((i) => (
+              {lineIssues.slice(0, 50).map((i) => (
                 <li key={`${i.line}-${i.field}-${i.message}`}>
                   line {i.line}, {i.field}: {i.message}
                 </li>
