@@ -1,7 +1,7 @@
 "use client";
 
 import { useState } from "react";
-import type { CredentialDetail } from "@/lib/credentials/data";
+import type { CredentialDetail } from "@/lib/credentials/model";
 import { CredentialForm, type FormType } from "./credential-form";
 import { CredentialState } from "./credential-state";
 

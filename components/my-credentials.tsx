@@ -3,7 +3,7 @@ import { db } from "@/lib/db";
 import { workerCredentials } from "@/lib/credentials/data";
 import { listTypes } from "@/lib/credentials/data-qualification-types";
 import { getWorker } from "@/lib/workers/data";
-import { todayIn } from "@/lib/yards/data";
+import { todayIn } from "@/lib/time/days";
 import { MyCredentialsList } from "./my-credentials-list";
 
 /**

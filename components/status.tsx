@@ -1,12 +1,16 @@
+import type { Tone } from "@/lib/tone";
+
+export type { Tone };
+
 // State is never told by colour alone: every badge carries an icon and a word.
-const STYLES = {
+const STYLES: Record<Tone, { cls: string; word: string }> = {
   block: { cls: "bg-block-bg text-block", word: "Block" },
   warn: { cls: "bg-warn-bg text-warn", word: "Warn" },
   clear: { cls: "bg-clear-bg text-clear", word: "Clear" },
   info: { cls: "bg-info-bg text-info", word: "Info" },
   waived: { cls: "bg-waived-bg text-waived", word: "Overridden" },
   muted: { cls: "bg-paper-200 text-ink-500", word: "" },
-} as const;
+};
 
 /** Shape-coded state icons (drawn, so they look the same on every device): a shape per state. */
 export function StateIcon({ tone, className = "h-3 w-3" }: { tone: Tone; className?: string }) {
@@ -52,8 +56,6 @@ export function StateIcon({ tone, className = "h-3 w-3" }: { tone: Tone; classNa
       );
   }
 }
-
-export type Tone = keyof typeof STYLES;
 
 export function Badge({ tone, children, title }: { tone: Tone; children?: React.ReactNode; title?: string }) {
   const s = STYLES[tone];

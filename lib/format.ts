@@ -35,13 +35,6 @@ export function fmtDateTimeZone(iso: string | Date, timezone: string) {
   }).format(typeof iso === "string" ? new Date(iso) : iso);
 }
 
-/** Whole days from `from` to `to` (both YYYY-MM-DD). */
-export function daysBetween(from: string, to: string) {
-  const a = Date.UTC(+from.slice(0, 4), +from.slice(5, 7) - 1, +from.slice(8, 10));
-  const b = Date.UTC(+to.slice(0, 4), +to.slice(5, 7) - 1, +to.slice(8, 10));
-  return Math.round((b - a) / 86_400_000);
-}
-
 export const CLASSIFICATION_LABEL: Record<string, string> = {
   journeyman: "Journeyman",
   apprentice: "Apprentice",

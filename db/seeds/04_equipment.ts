@@ -1,6 +1,6 @@
 import type { Knex } from "knex";
 import { DEMO_EQUIPMENT } from "../demo/equipment";
-import { todayIn, addDays } from "../../lib/yards/data";
+import { todayIn, addDays } from "../../lib/time/days";
 
 // The demo's trucks and trailers and their rigging (after 01_demo.ts, which empties every table
 // and writes the yards and orders). Idempotent: this seed's own rows are replaced on each run.

@@ -1,6 +1,6 @@
 import type { Knex } from "knex";
 import { DEMO_GEAR, DEMO_LIFTS, YARD_ELEVATION_M, serialOf } from "../demo/gear";
-import { addDays, todayIn } from "../../lib/yards/data";
+import { addDays, todayIn } from "../../lib/time/days";
 
 // The demo's rubber goods, yard elevations and lift plans (after 01_demo.ts, which empties every
 // table and writes the yards, workers and orders). Idempotent: this seed's rows are replaced.

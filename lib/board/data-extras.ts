@@ -2,7 +2,7 @@ import type { Knex } from "knex";
 import { ensureOccurrences } from "@/lib/orders/data-occurrences";
 import { onCallAt } from "@/lib/rotations/data-on-call";
 import { zonedWallTimeToEpoch } from "@/lib/rules/time";
-import { addDays } from "@/lib/yards/data";
+import { addDays } from "@/lib/time/days";
 import type { BoardPayload } from "./model";
 
 /** Before a day is read: recurring orders get their occurrence for that day. */

@@ -11,7 +11,8 @@ import { attachGear } from "@/lib/gear/data-snapshot";
 import { latestEventId } from "@/lib/events/data";
 import { placedElsewhere } from "./data-placed-elsewhere";
 import { getPolicy } from "@/lib/policies/data";
-import { addDays, type Yard } from "@/lib/yards/data";
+import { type Yard } from "@/lib/yards/data";
+import { addDays } from "@/lib/time/days";
 
 const HOUR = 3_600_000;
 /** Worked time this far either side of the day can still join a stretch that touches it. */

@@ -34,6 +34,8 @@ import {
   type BriefingData,
   type GearCheck,
 } from "@/lib/briefings/model";
+import type { BriefingView, CrewMember, OrderFacts, AckView, RoundView } from "./model";
+export type { BriefingView, CrewMember, OrderFacts, AckView, RoundView };
 
 type Q = Knex | Knex.Transaction;
 
@@ -41,88 +43,6 @@ export interface BriefingActor extends Actor {
   role: Role;
   workerId: number | null;
   name?: string;
-}
-
-export interface CrewMember {
-  workerId: number;
-  name: string;
-  employeeNo: string;
-  classification: string;
-  positions: string[];
-  positionLabel: string;
-  phone: string | null;
-  email: string | null;
-  assignmentStatus: string;
-  /** Has a sign-in of their own (can acknowledge from their phone). */
-  hasSignIn: boolean;
-  climbs: boolean;
-}
-
-export interface OrderFacts {
-  id: number;
-  organisationId: number;
-  number: string;
-  title: string;
-  address: string | null;
-  structureNo: string | null;
-  start: string;
-  end: string;
-  workDate: string;
-  timezone: string;
-  yardId: number;
-  yardCode: string;
-  yardName: string;
-  energized: boolean;
-  voltageKv: number | null;
-  /** Issue 14: a single-phase tap (phases 1, its system voltage) and live parts beside de-energized work. */
-  phases: number;
-  systemKv: number | null;
-  nearEnergizedKv: number | null;
-  status: string;
-  holdReason: string | null;
-  briefingState: string;
-  actualStartAt: string | null;
-  workTypeName: string;
-  ruleType: string;
-  notes: string | null;
-  version: number;
-}
-
-export interface AckView {
-  workerId: number;
-  name: string;
-  acknowledgedAt: string;
-  gearCheck: GearCheck | null;
-  inPerson: boolean;
-  recordedBy: string | null;
-}
-
-export interface RoundView {
-  id: number;
-  round: number;
-  state: "draft" | "briefed" | "on_hold";
-  version: number;
-  leadWorkerId: number | null;
-  completedAt: string | null;
-  updatedAt: string;
-  updatedBy: string | null;
-  reason: string | null;
-  holdPrevStatus: string | null;
-}
-
-export interface BriefingView {
-  order: OrderFacts;
-  crew: CrewMember[];
-  leadWorkerId: number | null;
-  /** The current round, or null before the lead first saves. */
-  briefing: RoundView | null;
-  /** The current round's data, or a draft filled in from the order. */
-  data: BriefingData;
-  acks: AckView[];
-  /** Crew members who have not acknowledged the current round. */
-  pending: CrewMember[];
-  history: { round: number; state: string; completedAt: string | null; reason: string | null }[];
-  start: { allowed: boolean; reason: string | null };
 }
 
 export type Mode = "lead" | "crew" | "viewer";

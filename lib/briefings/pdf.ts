@@ -4,7 +4,7 @@
 import { PDFDocument, StandardFonts, rgb, type PDFFont, type PDFImage, type PDFPage } from "pdf-lib";
 import { fmtDateTime } from "@/lib/format";
 import { energyLabel } from "@/lib/orders/voltage";
-import type { BriefingView } from "@/lib/briefings/data";
+import type { BriefingView } from "@/lib/briefings/model";
 import { CONTROLS, FAIL_ACTIONS, FT_TO_M, GEAR, HAZARDS, POLE_CHECKS, type GearCheck } from "@/lib/briefings/model";
 
 export const CAUTION =

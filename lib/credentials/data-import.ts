@@ -2,7 +2,7 @@ import { randomUUID } from "node:crypto";
 import type { Knex } from "knex";
 import { audit, type Actor } from "@/lib/audit/data";
 import { boardEvent } from "@/lib/events/data";
-import { todayIn } from "@/lib/yards/data";
+import { todayIn } from "@/lib/time/days";
 import { parseCredentialCsv, planImport, type ImportLookups, type ImportRow } from "@/lib/credentials/csv";
 import type { ImportIssue } from "@/lib/credentials/model";
 

@@ -2,8 +2,9 @@ import { hostname } from "node:os";
 import type { Knex } from "knex";
 import { audit } from "@/lib/audit/data";
 import { contentionKind, withConflictRetry } from "@/lib/db";
-import { todayIn } from "@/lib/yards/data";
-import { daysBetween, fmtDate } from "@/lib/format";
+import { todayIn } from "@/lib/time/days";
+import { fmtDate } from "@/lib/format";
+import { daysBetween } from "@/lib/time/days";
 import { addDaysIso } from "@/lib/credentials/model";
 
 // Credential reminders. "Sending" = queueing rows in the notifications outbox (channel

@@ -1,14 +1,16 @@
 import type { Knex } from "knex";
 import { ApiError } from "@/lib/api/http";
-import { daysBetween } from "@/lib/format";
+import { daysBetween } from "@/lib/time/days";
 import { audit, type Actor } from "@/lib/audit/data";
 import { boardEvent } from "@/lib/events/data";
 import { assertAttachable } from "@/lib/files/data";
-import { todayIn } from "@/lib/yards/data";
+import { todayIn } from "@/lib/time/days";
 import { inView, proposeExpiry, type CredentialCreate, type CredentialPatch, type CredentialView } from "@/lib/credentials/model";
 
 export { inView };
 import type { Role } from "@/lib/users/roles";
+import type { CredentialDetail, QualificationType, CredentialStatus } from "./model";
+export type { CredentialDetail, QualificationType, CredentialStatus };
 
 export interface CredentialRow {
   id: number;
@@ -67,40 +69,6 @@ export async function listCurrentCredentials(db: Knex, organisationId: number, w
 }
 
 // --- the credentials desk -------------------------------------------------------------------
-
-export type CredentialStatus = "current" | "superseded" | "pending" | "rejected";
-
-/** One credential with everything the desk shows. Plain JSON (dates as strings). */
-export interface CredentialDetail {
-  id: number;
-  workerId: number;
-  workerName: string;
-  employeeNo: string;
-  workerActive: boolean;
-  yardId: number;
-  yardCode: string;
-  timezone: string;
-  typeId: number;
-  type: string;
-  typeName: string;
-  warnDays: number;
-  renewalMonths: number | null;
-  needsEvidence: boolean;
-  issuedOn: string;
-  expiresOn: string | null;
-  status: CredentialStatus;
-  /** Whole days from today (in the worker's yard zone) to the last valid day; null = no expiry. */
-  daysLeft: number | null;
-  evidenceFileId: number | null;
-  evidenceName: string | null;
-  verifiedByName: string | null;
-  verifiedAt: string | null;
-  createdByName: string | null;
-  createdAt: string;
-  supersedesId: number | null;
-  note: string | null;
-  importRef: string | null;
-}
 
 const iso = (v: unknown) => (v instanceof Date ? v.toISOString() : v ? new Date(String(v)).toISOString() : null);
 
@@ -408,19 +376,6 @@ export async function patchCredential(db: Knex, actor: CredentialActor, id: numb
 }
 
 // --- qualification types ----------------------------------------------------------------------
-
-export interface QualificationType {
-  id: number;
-  code: string;
-  name: string;
-  renewalMonths: number | null;
-  warnDays: number;
-  needsEvidence: boolean;
-  /** Read by the crew rules: the code can never change or go. */
-  locked: boolean;
-  /** How many credential records use it (any status). */
-  inUse: number;
-}
 
 export async function listQualificationTypes(db: Knex | Knex.Transaction, organisationId: number, isLocked: (code: string) => boolean) {
   const rows = await db("qualification_types as q")

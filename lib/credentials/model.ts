@@ -1,4 +1,5 @@
 import { z } from "zod";
+import { addDays } from "@/lib/time/days";
 
 // Schemas for credentials: add/renew (HR), a lineworker's renewal (pending), HR's verify or
 // reject, the list query and the CSV import. Shared by the routes, the forms and the tests.
@@ -20,11 +21,8 @@ export const isoDate = z
 
 const pad = (n: number, w = 2) => String(n).padStart(w, "0");
 
-export function addDaysIso(date: string, days: number): string {
-  const [y, m, d] = date.split("-").map(Number);
-  const t = new Date(Date.UTC(y, m - 1, d + days));
-  return `${pad(t.getUTCFullYear(), 4)}-${pad(t.getUTCMonth() + 1)}-${pad(t.getUTCDate())}`;
-}
+/** The day `days` after `date`: lib/time/days.ts's addDays under the name the credential code uses. */
+export const addDaysIso = addDays;
 
 /** Calendar months, clamped to the month's last day (Jan 31 + 1 month = Feb 28/29). */
 export function addMonthsIso(date: string, months: number): string {
@@ -181,3 +179,50 @@ export const importRowSchema = z.object({
 
 /** "line 7, expires_on: not a date (YYYY-MM-DD)" */
 export const formatIssue = (i: ImportIssue) => `line ${i.line}, ${i.field}: ${i.message}`;
+
+/** One credential with everything the desk shows. Plain JSON (dates as strings). */
+export interface CredentialDetail {
+  id: number;
+  workerId: number;
+  workerName: string;
+  employeeNo: string;
+  workerActive: boolean;
+  yardId: number;
+  yardCode: string;
+  timezone: string;
+  typeId: number;
+  type: string;
+  typeName: string;
+  warnDays: number;
+  renewalMonths: number | null;
+  needsEvidence: boolean;
+  issuedOn: string;
+  expiresOn: string | null;
+  status: CredentialStatus;
+  /** Whole days from today (in the worker's yard zone) to the last valid day; null = no expiry. */
+  daysLeft: number | null;
+  evidenceFileId: number | null;
+  evidenceName: string | null;
+  verifiedByName: string | null;
+  verifiedAt: string | null;
+  createdByName: string | null;
+  createdAt: string;
+  supersedesId: number | null;
+  note: string | null;
+  importRef: string | null;
+}
+
+export interface QualificationType {
+  id: number;
+  code: string;
+  name: string;
+  renewalMonths: number | null;
+  warnDays: number;
+  needsEvidence: boolean;
+  /** Read by the crew rules: the code can never change or go. */
+  locked: boolean;
+  /** How many credential records use it (any status). */
+  inUse: number;
+}
+
+export type CredentialStatus = "current" | "superseded" | "pending" | "rejected";

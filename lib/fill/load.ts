@@ -9,7 +9,8 @@
 
 import type { Knex } from "knex";
 import { buildSnapshot, crewHash, dayOrders, dayWindow, liveAssignments, type OrderRow } from "@/lib/board/data";
-import { addDays, type Yard } from "@/lib/yards/data";
+import { type Yard } from "@/lib/yards/data";
+import { addDays } from "@/lib/time/days";
 import type { Position } from "@/lib/rules/types";
 import { OVERTIME_WINDOW_DAYS, overtimeHours } from "./overtime";
 import type { FillOrder, FillProblem, FillWorker } from "./types";

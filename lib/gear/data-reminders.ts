@@ -1,7 +1,7 @@
 import { hostname } from "node:os";
 import type { Knex } from "knex";
 import { audit, type Actor } from "@/lib/audit/data";
-import { todayIn } from "@/lib/yards/data";
+import { todayIn } from "@/lib/time/days";
 import { GEAR_KIND_LABEL, gearState, type GearKind } from "./model";
 
 // Rubber goods test reminders, like the credential reminders (lib/credentials/data-reminders.ts): "sending" is

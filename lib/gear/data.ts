@@ -2,7 +2,7 @@ import type { Knex } from "knex";
 import { ApiError } from "@/lib/api/http";
 import { audit, type Actor } from "@/lib/audit/data";
 import { boardEvent } from "@/lib/events/data";
-import { todayIn } from "@/lib/yards/data";
+import { todayIn } from "@/lib/time/days";
 import { parseGearCsv, planGearImport, type GearIssue, type GearLookups, type RawGearRow } from "./csv";
 import { gearState, inGearView, type GearClass, type GearCreate, type GearItem, type GearKind, type GearPatch, type GearQuery, type RuleGear } from "./model";
 import { toRuleLift, type LiftConfirm, type LiftPlan, type LiftPlanBody, type RiggingChoice } from "./lift";

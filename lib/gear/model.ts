@@ -1,6 +1,7 @@
 import { z } from "zod";
 import { MAX_USE_VOLTS, RETEST_MONTHS } from "@/lib/rules/gear";
 import { addMonthsIso, isoDate, isRealDate } from "@/lib/credentials/model";
+import { daysBetween } from "@/lib/time/days";
 
 // Rubber goods: a worker's insulating gloves and sleeves. Types, labels, the schemas shared by
 // the routes, the forms and the tests, and the retest arithmetic. Pure (no database).
@@ -37,13 +38,6 @@ export function nextTestDue(kind: GearKind, testedOn: string): string {
 }
 
 export type GearState = "retired" | "overdue" | "due" | "ok";
-
-/** Whole days from `from` to `to` (both YYYY-MM-DD). */
-export function daysBetween(from: string, to: string): number {
-  const a = Date.UTC(+from.slice(0, 4), +from.slice(5, 7) - 1, +from.slice(8, 10));
-  const b = Date.UTC(+to.slice(0, 4), +to.slice(5, 7) - 1, +to.slice(8, 10));
-  return Math.round((b - a) / 86_400_000);
-}
 
 /**
  * Where an item stands on `today`: overdue once its due date has passed (it may be used on the

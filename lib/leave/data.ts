@@ -7,7 +7,7 @@ import { audit, type Actor } from "@/lib/audit/data";
 import { bumpWorkers } from "@/lib/assignments/data-booking";
 import { boardEvent } from "@/lib/events/data";
 import { fieldError, instant } from "@/lib/orders/data";
-import { addDays } from "@/lib/yards/data";
+import { addDays } from "@/lib/time/days";
 import type { Role } from "@/lib/users/roles";
 import { epochToZonedDate, epochToZonedWallTime } from "@/lib/rules/time";
 import type { UnavailabilityInput, UnavailabilityPatch } from "@/lib/leave/model";

@@ -24,7 +24,7 @@ import {
   type OrderTemplate,
   type YardRow,
 } from "@/lib/orders/data";
-import { todayIn, addDays } from "@/lib/yards/data";
+import { todayIn, addDays } from "@/lib/time/days";
 import {
   HORIZON_DAYS,
   floating,

@@ -1,5 +1,5 @@
 // Order statuses and their words. Pure: shared by server pages, client forms and the board.
-import type { Tone } from "@/components/status";
+import type { Tone } from "@/lib/tone";
 
 export const ORDER_STATUSES = ["draft", "planned", "sent", "in_progress", "done", "on_hold", "cancelled"] as const;
 export type OrderStatus = (typeof ORDER_STATUSES)[number];

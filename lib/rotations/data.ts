@@ -6,7 +6,7 @@ import { boardEvent } from "@/lib/events/data";
 import { fieldError, instant, yardOf } from "@/lib/orders/data";
 import { recordWorkedTime } from "@/lib/time-records/data";
 import { describeRrule, normaliseLocal, parseRrule } from "@/lib/time/recurrence";
-import { onCallFromMembers, schedule } from "@/lib/rotations/data-on-call";
+import { onCallFromMembers, schedule } from "@/lib/rotations/schedule";
 import { epochToZonedDate, epochToZonedWallTime } from "@/lib/rules/time";
 import type { CallOutInput, RotationInput, RotationPatch } from "@/lib/rotations/model";
 

@@ -7,7 +7,7 @@ import { bumpWorkers } from "@/lib/assignments/data-booking";
 import { boardEvent } from "@/lib/events/data";
 import { getPolicy } from "@/lib/policies/data";
 import { fieldError, instant } from "@/lib/orders/data";
-import { addDays, todayIn } from "@/lib/yards/data";
+import { addDays, todayIn } from "@/lib/time/days";
 import { epochToZonedDate, epochToZonedWallTime, zonedWallTimeToEpoch } from "@/lib/rules/time";
 import type { ManualTimeRecordInput } from "@/lib/time-records/model";
 

@@ -8,6 +8,8 @@ import { appPublicUrl } from "@/lib/notify/config";
 import { enqueue } from "@/lib/notify/outbox";
 import type { UserCreate, UserPatch } from "@/lib/users/model";
 import { audit, type Actor } from "@/lib/audit/data";
+import type { UserView } from "./model";
+export type { UserView };
 
 // Users: admin management (issue 18, point 6) and passwords (issue 15). Every change is
 // audited in its transaction; a role change, deactivation or password change ends the user's
@@ -15,18 +17,6 @@ import { audit, type Actor } from "@/lib/audit/data";
 
 export const RESET_TTL_MINUTES = 60;
 const BCRYPT_COST = 10;
-
-export interface UserView {
-  id: number;
-  email: string;
-  name: string;
-  role: Role;
-  active: boolean;
-  workerId: number | null;
-  workerName: string | null;
-  yardIds: number[];
-  createdAt: string;
-}
 
 const issue = (status: number, field: string, message: string) => new ApiError(status, `Invalid ${field}: ${message}`, { issues: [{ field, message }] });
 const tokenHash = (t: string) => createHash("sha256").update(t).digest("hex");

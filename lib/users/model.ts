@@ -1,5 +1,5 @@
 import { z } from "zod";
-import { ROLES } from "@/lib/users/roles";
+import { ROLES, type Role } from "@/lib/users/roles";
 
 // User management (issue 18, point 6) and passwords (issue 15). Shared by routes and forms.
 
@@ -52,3 +52,15 @@ export const passwordResetSchema = z.object({
 
 export type UserCreate = z.infer<typeof userCreateSchema>;
 export type UserPatch = z.infer<typeof userPatchSchema>;
+
+export interface UserView {
+  id: number;
+  email: string;
+  name: string;
+  role: Role;
+  active: boolean;
+  workerId: number | null;
+  workerName: string | null;
+  yardIds: number[];
+  createdAt: string;
+}

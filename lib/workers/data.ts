@@ -3,22 +3,8 @@ import { ApiError } from "@/lib/api/http";
 import { audit, type Actor } from "@/lib/audit/data";
 import { boardEvent } from "@/lib/events/data";
 import type { WorkerInput, WorkerPatch } from "@/lib/workers/model";
-
-export interface WorkerRow {
-  id: number;
-  employeeNo: string;
-  firstName: string;
-  lastName: string;
-  name: string;
-  classification: string;
-  yardId: number;
-  yardCode: string;
-  phone: string | null;
-  email: string | null;
-  smsOptIn: boolean;
-  active: boolean;
-  version: number;
-}
+import type { WorkerRow } from "./model";
+export type { WorkerRow };
 
 export const toWorker = (r: Record<string, unknown>): WorkerRow => ({
   id: Number(r.id),

@@ -103,3 +103,19 @@ export const workerQuerySchema = z.object({
   yard: z.string().trim().max(20).optional(),
   active: z.enum(["true", "false", "all"]).optional(),
 });
+
+export interface WorkerRow {
+  id: number;
+  employeeNo: string;
+  firstName: string;
+  lastName: string;
+  name: string;
+  classification: string;
+  yardId: number;
+  yardCode: string;
+  phone: string | null;
+  email: string | null;
+  smsOptIn: boolean;
+  active: boolean;
+  version: number;
+}

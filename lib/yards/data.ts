@@ -34,18 +34,3 @@ export async function pickYard(db: Knex, organisationId: number, code?: string |
     yards[0];
   return { yard: yard ?? null, yards };
 }
-
-/** Today's date (YYYY-MM-DD) in an IANA zone. */
-export function todayIn(timezone: string, now = new Date()): string {
-  return new Intl.DateTimeFormat("en-CA", { timeZone: timezone, year: "numeric", month: "2-digit", day: "2-digit" }).format(now);
-}
-
-export function addDays(date: string, days: number): string {
-  const [y, m, d] = date.split("-").map(Number);
-  const t = new Date(Date.UTC(y, m - 1, d + days));
-  return t.toISOString().slice(0, 10);
-}
-
-export function tomorrowIn(timezone: string, now = new Date()) {
-  return addDays(todayIn(timezone, now), 1);
-}

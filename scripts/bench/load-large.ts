@@ -11,7 +11,7 @@
 import knex, { type Knex } from "knex";
 import { dbConfig } from "../../knexfile";
 import { fillScenario } from "../../lib/fill/scenario";
-import { addDays, tomorrowIn } from "../../lib/yards/data";
+import { addDays, tomorrowIn } from "../../lib/time/days";
 import { epochToZonedDate } from "../../lib/rules/time";
 import type { WorkType } from "../../lib/rules/types";
 

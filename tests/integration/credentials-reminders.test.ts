@@ -2,7 +2,7 @@ import { afterAll, beforeAll, describe, expect, it } from "vitest";
 import knex, { type Knex } from "knex";
 import { dbConfig } from "@/knexfile";
 import { JOB, runDailyReminders, sendRemindersNow } from "@/lib/credentials/data-reminders";
-import { todayIn } from "@/lib/yards/data";
+import { todayIn } from "@/lib/time/days";
 import { fmtDate } from "@/lib/format";
 
 // Reminders go into the notifications outbox; this checks the outbox and the claim tables

@@ -1,7 +1,7 @@
 import knex from "knex";
 import { afterAll, beforeAll, describe, expect, it } from "vitest";
 import { dbConfig } from "@/knexfile";
-import { addDays, todayIn } from "@/lib/yards/data";
+import { addDays, todayIn } from "@/lib/time/days";
 import { voltageLabel } from "@/lib/orders/voltage";
 import { as, type Client } from "@/tests/support/client";
 

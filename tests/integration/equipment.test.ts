@@ -3,7 +3,7 @@ import { afterAll, beforeAll, describe, expect, it } from "vitest";
 import { dbConfig } from "@/knexfile";
 import { as, Client, type DemoRole } from "@/tests/support/client";
 import { makeOrder, removeMadeOrders, yard } from "@/tests/support/fixtures";
-import { addDays, todayIn } from "@/lib/yards/data";
+import { addDays, todayIn } from "@/lib/time/days";
 
 // The equipment register and equipment bookings through the running app (APP_URL) and its
 // database (DB_NAME). Roles as issue 16 gives them: dispatcher, supervisor and admin edit the

@@ -4,7 +4,7 @@ import knex, { type Knex } from "knex";
 import { dbConfig } from "@/knexfile";
 import { as, Client, type DemoRole } from "@/tests/support/client";
 import { makeOrder, removeMadeOrders, workerByNo } from "@/tests/support/fixtures";
-import { addDays, todayIn } from "@/lib/yards/data";
+import { addDays, todayIn } from "@/lib/time/days";
 import { addMonthsIso } from "@/lib/credentials/model";
 
 // Rubber goods and lift plans against the running app and MariaDB. Rubber goods written here

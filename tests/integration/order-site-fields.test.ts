@@ -1,7 +1,7 @@
 import knex, { type Knex } from "knex";
 import { afterAll, beforeAll, describe, expect, it } from "vitest";
 import { dbConfig } from "@/knexfile";
-import { addDays, todayIn } from "@/lib/yards/data";
+import { addDays, todayIn } from "@/lib/time/days";
 import { as, type Client } from "@/tests/support/client";
 
 // The order form's issue-14 fields through POST/PATCH /api/orders and into the board's rule

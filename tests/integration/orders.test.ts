@@ -1,7 +1,7 @@
 import knex, { type Knex } from "knex";
 import { afterAll, beforeAll, describe, expect, it } from "vitest";
 import { dbConfig } from "@/knexfile";
-import { addDays, todayIn } from "@/lib/yards/data";
+import { addDays, todayIn } from "@/lib/time/days";
 import { onCallAt } from "@/lib/rotations/data-on-call";
 import { as, Client } from "@/tests/support/client";
 

@@ -7,7 +7,7 @@ import path from "node:path";
 import knex from "knex";
 import { afterAll, beforeAll, describe, expect, it } from "vitest";
 import { dbConfig } from "@/knexfile";
-import { addDays, todayIn } from "@/lib/yards/data";
+import { addDays, todayIn } from "@/lib/time/days";
 import { ROLES, type Role } from "@/lib/users/roles";
 import { Client } from "../support/client";
 import { makeOrder } from "../support/fixtures";

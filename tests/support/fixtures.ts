@@ -2,7 +2,7 @@
 // depend on (or disturb) the demo board.
 import type { Knex } from "knex";
 import { zonedWallTimeToEpoch } from "@/lib/rules/time";
-import { addDays, todayIn } from "@/lib/yards/data";
+import { addDays, todayIn } from "@/lib/time/days";
 
 export async function yard(db: Knex, code = "NOR") {
   return db("yards").where({ code }).first();

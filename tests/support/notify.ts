@@ -5,7 +5,7 @@ import { randomInt } from "node:crypto";
 import knex, { type Knex } from "knex";
 import { dbConfig } from "../../knexfile";
 import { zonedWallTimeToEpoch } from "../../lib/rules/time";
-import { addDays, todayIn } from "../../lib/yards/data";
+import { addDays, todayIn } from "../../lib/time/days";
 
 export const SMS_FAKE = process.env.TWILIO_API_BASE ?? `http://127.0.0.1:${process.env.SMS_FAKE_PORT ?? 4010}`;
 export const MAILBOX = `http://127.0.0.1:${process.env.MAIL_FAKE_HTTP_PORT ?? 4020}`;

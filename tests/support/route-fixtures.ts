@@ -6,7 +6,7 @@ import { randomInt } from "node:crypto";
 import { smsAuthToken } from "@/tests/support/secrets";
 import type { Knex } from "knex";
 import twilio from "twilio";
-import { addDays, todayIn } from "@/lib/yards/data";
+import { addDays, todayIn } from "@/lib/time/days";
 import { getPolicy } from "@/lib/policies/data";
 import { getWorkType } from "@/lib/orders/data-work-types";
 import { newCalendarToken } from "@/lib/workers/data-calendar";

@@ -1,5 +1,5 @@
 import { describe, expect, it } from "vitest";
-import { handoversBetween, onCallFromMembers, periodAt, periodHours, schedule } from "@/lib/rotations/data-on-call";
+import { handoversBetween, onCallFromMembers, periodAt, periodHours, schedule } from "@/lib/rotations/schedule";
 import { epochToOffsetTime, offsetAt } from "@/lib/rules/time";
 
 // Hand-overs over the 2027 daylight-saving weekends in America/Chicago. IANA's US rules

@@ -5,7 +5,7 @@ import { PageHeader } from "@/components/status";
 import { fmtDateTimeZone } from "@/lib/format";
 import { actionLabel, auditSentence } from "@/lib/audit/model";
 import { zonedWallTimeToEpoch } from "@/lib/rules/time";
-import { addDays } from "@/lib/yards/data";
+import { addDays } from "@/lib/time/days";
 
 export const metadata = { title: "Audit" };
 

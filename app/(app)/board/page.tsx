@@ -1,6 +1,7 @@
 import { contactYards, requirePageRole } from "@/lib/auth/session";
 import { db } from "@/lib/db";
-import { pickYard, tomorrowIn } from "@/lib/yards/data";
+import { pickYard } from "@/lib/yards/data";
+import { tomorrowIn } from "@/lib/time/days";
 import { currentVariant } from "@/lib/board/data-serve";
 import { BoardClient } from "./board-client";
 

@@ -5,7 +5,8 @@ import { useVirtualizer } from "@tanstack/react-virtual";
 import { memo, useMemo, useRef, useState } from "react";
 import type { BoardPayload, PoolWorker } from "@/lib/board/model";
 import type { Worker } from "@/lib/rules/types";
-import { CLASSIFICATION_LABEL, daysBetween } from "@/lib/format";
+import { CLASSIFICATION_LABEL } from "@/lib/format";
+import { daysBetween } from "@/lib/time/days";
 import { POOL_DROP, poolId } from "./dnd";
 
 export const CRED_LABEL: Record<string, string> = {

@@ -21,7 +21,7 @@ import {
   type SortingState,
 } from "@tanstack/react-table";
 import { CredentialState } from "@/components/credential-state";
-import type { CredentialDetail } from "@/lib/credentials/data";
+import type { CredentialDetail } from "@/lib/credentials/model";
 import { inView as inViewOf, type CredentialView } from "@/lib/credentials/model";
 
 const features = tableFeatures({

@@ -4,7 +4,8 @@ import { db } from "@/lib/db";
 import { PageHeader, SafetyNote } from "@/components/status";
 import { listEquipment } from "@/lib/equipment/data";
 import { CAN_EDIT_EQUIPMENT } from "@/lib/equipment/roles";
-import { listYards, todayIn } from "@/lib/yards/data";
+import { listYards } from "@/lib/yards/data";
+import { todayIn } from "@/lib/time/days";
 import { EquipmentClient } from "./equipment-client";
 
 export const metadata = { title: "Equipment" };

@@ -4,7 +4,8 @@ import { Badge, PageHeader } from "@/components/status";
 import { ActionButton } from "@/components/form-bits";
 import { listUnavailability, type UnavailabilityView } from "@/lib/leave/data";
 import { listWorkers } from "@/lib/workers/data";
-import { addDays, listYards, todayIn } from "@/lib/yards/data";
+import { listYards } from "@/lib/yards/data";
+import { addDays, todayIn } from "@/lib/time/days";
 import { fmtLocal } from "@/lib/time/zoned-format";
 import { LeaveForm } from "@/components/leave-form";
 

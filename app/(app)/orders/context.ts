@@ -1,7 +1,8 @@
 import type { SessionUser } from "@/lib/auth/session";
 import { db } from "@/lib/db";
 import { listWorkTypes } from "@/lib/orders/data-work-types";
-import { listYards, todayIn } from "@/lib/yards/data";
+import { listYards } from "@/lib/yards/data";
+import { todayIn } from "@/lib/time/days";
 
 export type Search = Promise<Record<string, string | string[] | undefined>>;
 export const one = (v: string | string[] | undefined) => (Array.isArray(v) ? v[0] : v) ?? "";

@@ -4,7 +4,7 @@ import Link from "next/link";
 import { useMemo, useState } from "react";
 import { Badge } from "@/components/status";
 import { CLASSIFICATION_LABEL } from "@/lib/format";
-import type { WorkerRow } from "@/lib/workers/data";
+import type { WorkerRow } from "@/lib/workers/model";
 import { WorkerForm, type YardOption } from "./worker-form";
 
 interface Props {

@@ -6,7 +6,7 @@ import { useForm } from "react-hook-form";
 import { CheckField, FormAlert, SelectField, TextField } from "@/components/form/fields";
 import { useApiMutation } from "@/lib/api/mutations";
 import { CLASSIFICATION_LABEL } from "@/lib/format";
-import type { WorkerRow } from "@/lib/workers/data";
+import type { WorkerRow } from "@/lib/workers/model";
 import { CLASSIFICATIONS, workerSchema, type WorkerFormInput, type WorkerInput } from "@/lib/workers/model";
 
 export interface YardOption {

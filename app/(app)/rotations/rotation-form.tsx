@@ -6,7 +6,7 @@ import { useForm } from "react-hook-form";
 import { CheckField, FieldError, FormAlert, SelectField, TextField } from "@/components/form/fields";
 import { useApiMutation } from "@/lib/api/mutations";
 import { WEEKDAYS, WEEKDAY_LABEL, parseRrule, type WeekdayCode } from "@/lib/time/recurrence";
-import { schedule } from "@/lib/rotations/data-on-call";
+import { schedule } from "@/lib/rotations/schedule";
 import { fmtLocal } from "@/lib/time/zoned-format";
 import { rotationSchema, type RotationFormValues } from "@/lib/rotations/model";
 import { TurnOrder } from "./turn-order";

@@ -6,7 +6,7 @@ import { ActionButton } from "@/components/form-bits";
 import { calendarUrlFor } from "@/lib/workers/data-calendar";
 import { workerWeek, weekStart, type TimeKind } from "@/lib/time-records/data";
 import { listWorkers } from "@/lib/workers/data";
-import { addDays, todayIn } from "@/lib/yards/data";
+import { addDays, todayIn } from "@/lib/time/days";
 import { fmtDate } from "@/lib/format";
 import { isIsoDate } from "@/lib/rules/time";
 import { CalendarLink } from "@/components/calendar-link";

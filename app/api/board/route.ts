@@ -5,7 +5,8 @@ import { ApiError, handler, readQuery } from "@/lib/api/http";
 import { contactYards, requireRole } from "@/lib/auth/session";
 import { CAN_DISPATCH } from "@/lib/users/roles";
 import { boardQuerySchema } from "@/lib/board/schema";
-import { pickYard, tomorrowIn } from "@/lib/yards/data";
+import { pickYard } from "@/lib/yards/data";
+import { tomorrowIn } from "@/lib/time/days";
 import { boardAnswer } from "@/lib/board/data-serve";
 
 export const dynamic = "force-dynamic";

@@ -5,7 +5,7 @@ import { FormAlert } from "@/components/form/fields";
 import { placeFailure, type IssueTarget } from "@/lib/api/client";
 import { useApiMutation } from "@/lib/api/mutations";
 import { ROLES, ROLE_LABEL, type Role } from "@/lib/users/roles";
-import type { UserView } from "@/lib/users/data";
+import type { UserView } from "@/lib/users/model";
 import { AddUserForm } from "./add-user-form";
 
 interface Yard {

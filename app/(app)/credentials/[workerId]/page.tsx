@@ -6,7 +6,7 @@ import { db } from "@/lib/db";
 import { workerCredentials } from "@/lib/credentials/data";
 import { listTypes } from "@/lib/credentials/data-qualification-types";
 import { getWorker } from "@/lib/workers/data";
-import { todayIn } from "@/lib/yards/data";
+import { todayIn } from "@/lib/time/days";
 import { CLASSIFICATION_LABEL } from "@/lib/format";
 import { Badge, PageHeader } from "@/components/status";
 import { CredentialState } from "@/components/credential-state";

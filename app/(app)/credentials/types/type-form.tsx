@@ -4,7 +4,7 @@ import { zodResolver } from "@hookform/resolvers/zod";
 import { useForm } from "react-hook-form";
 import { CheckField, FormAlert, TextField } from "@/components/form/fields";
 import { useApiMutation } from "@/lib/api/mutations";
-import type { QualificationType } from "@/lib/credentials/data";
+import type { QualificationType } from "@/lib/credentials/model";
 import { qualificationTypeCreateSchema, type QualificationTypeCreate, type QualificationTypeCreateInput } from "@/lib/credentials/qualification-types";
 
 const editSchema = qualificationTypeCreateSchema.omit({ code: true });

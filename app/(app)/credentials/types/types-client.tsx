@@ -4,7 +4,7 @@ import { useState } from "react";
 import { FormAlert } from "@/components/form/fields";
 import { Badge } from "@/components/status";
 import { useApiMutation } from "@/lib/api/mutations";
-import type { QualificationType } from "@/lib/credentials/data";
+import type { QualificationType } from "@/lib/credentials/model";
 import { TypeForm } from "./type-form";
 
 export function TypesClient({ types, canEdit }: { types: QualificationType[]; canEdit: boolean }) {

@@ -3,7 +3,7 @@ import { requirePageRole } from "@/lib/auth/session";
 import { ordersContext, one, type Search } from "../context";
 import { Badge, PageHeader } from "@/components/status";
 import { listOrders } from "@/lib/orders/data";
-import { addDays } from "@/lib/yards/data";
+import { addDays } from "@/lib/time/days";
 import { fmtDate } from "@/lib/format";
 import { locateBadgeLabel } from "@/lib/orders/locate";
 import { STATUS_LABEL, STATUS_TONE } from "@/lib/orders/status";

@@ -3,7 +3,8 @@ import { requirePageRole } from "@/lib/auth/session";
 import { db } from "@/lib/db";
 import { PageHeader } from "@/components/status";
 import { listWorkTypes } from "@/lib/orders/data-work-types";
-import { addDays, listYards, todayIn } from "@/lib/yards/data";
+import { listYards } from "@/lib/yards/data";
+import { addDays, todayIn } from "@/lib/time/days";
 import { isIsoDate } from "@/lib/rules/time";
 import { OrderForm, type OrderFormShape } from "../order-form";
 

@@ -2,7 +2,7 @@ import { db } from "@/lib/db";
 import { handler, readQuery } from "@/lib/api/http";
 import { requireRole } from "@/lib/auth/session";
 import { listCredentials } from "@/lib/credentials/data";
-import { todayIn } from "@/lib/yards/data";
+import { todayIn } from "@/lib/time/days";
 import { credentialQuerySchema } from "@/lib/credentials/model";
 import { credentialExportCsv } from "@/lib/credentials/csv";
 

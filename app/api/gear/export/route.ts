@@ -5,7 +5,7 @@ import { handler, readQuery } from "@/lib/api/http";
 import { requireRole } from "@/lib/auth/session";
 import { listGear } from "@/lib/gear/data";
 import { GEAR_CSV_COLUMNS, gearQuerySchema } from "@/lib/gear/model";
-import { todayIn } from "@/lib/yards/data";
+import { todayIn } from "@/lib/time/days";
 
 // GET: hr, admin, dispatcher, supervisor. The rubber goods list as CSV with the list's filters.
 // The first columns are the import's, so an edited export imports again (unchanged rows stay
