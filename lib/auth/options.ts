@@ -5,7 +5,7 @@ import { z } from "zod";
 import { db, isDbUnavailable } from "@/lib/db";
 import { clientAddress } from "./client-address";
 import { recordSignIn, signInGate } from "./rate-limit";
-import { createSession, liveSessionUser, revokeSession, SESSION_MAX_AGE_SECONDS } from "./sessions";
+import { createSession, liveSessionUser, revokeSession, SESSION_MAX_AGE_SECONDS } from "@/lib/users/data-sessions";
 import type { Role } from "@/lib/users/roles";
 
 export const signInSchema = z.object({
@@ -78,7 +78,7 @@ export const authOptions: NextAuthOptions = {
     async jwt({ token, user }) {
       if (user) {
         const u = user as unknown as SessionUser;
-        // A server-side session for this sign-in (lib/auth/sessions.ts).
+        // A server-side session for this sign-in (lib/users/data-sessions.ts).
         token.sid = await createSession(db(), Number(u.id));
         token.uid = Number(u.id);
         token.role = u.role;

@@ -2,7 +2,7 @@ import { createHash, randomBytes } from "node:crypto";
 import bcrypt from "bcryptjs";
 import type { Knex } from "knex";
 import { ApiError } from "@/lib/api/http";
-import { revokeUserSessions } from "@/lib/auth/sessions";
+import { revokeUserSessions } from "@/lib/users/data-sessions";
 import type { Role } from "@/lib/users/roles";
 import { appPublicUrl } from "@/lib/notify/config";
 import { enqueue } from "@/lib/notify/outbox";
@@ -13,7 +13,7 @@ export type { UserView };
 
 // Users: admin management (issue 18, point 6) and passwords (issue 15). Every change is
 // audited in its transaction; a role change, deactivation or password change ends the user's
-// sessions at once (lib/auth/sessions.ts).
+// sessions at once (lib/users/data-sessions.ts).
 
 export const RESET_TTL_MINUTES = 60;
 const BCRYPT_COST = 10;

@@ -6,7 +6,7 @@ import { ApiError, handler, readQuery } from "@/lib/api/http";
 import { canAccessYard, requireRole, requireYardAccess } from "@/lib/auth/session";
 import { CAN_DISPATCH } from "@/lib/users/roles";
 import { useSecureCookies } from "@/lib/auth/options";
-import { liveSessionUser } from "@/lib/auth/sessions";
+import { liveSessionUser } from "@/lib/users/data-sessions";
 import { calendarDay } from "@/lib/time/days";
 import { pickYard } from "@/lib/yards/data";
 import { eventsSince } from "@/lib/events/data";

@@ -4,7 +4,7 @@ import { workerCredentials } from "@/lib/credentials/data";
 import { listTypes } from "@/lib/credentials/data-qualification-types";
 import { getWorker } from "@/lib/workers/data";
 import { todayIn } from "@/lib/time/days";
-import { MyCredentialsList } from "./my-credentials-list";
+import { MyCredentialsList } from "@/components/my-credentials-list";
 
 /**
  * The lineworker's own credentials, for the My week page: read-only, with "Send renewal"
