@@ -65,3 +65,38 @@ test("fill open positions, accept, and the staffed orders come out clear", async
     await expect(page.getByTestId("day-summary")).toContainText("No unresolved blocks");
   }
 });
+
+// Issue 19: while the fill runs the panel shows its progress and a Cancel button. The server's
+// side of cancel (the fill stops, nothing is written) is in tests/integration/fill.test.ts; here
+// the request is held back by the test so Cancel is pressed while it is surely running.
+test("the fill shows its progress while it runs, and Cancel stops it without a proposal", async ({ page }) => {
+  test.setTimeout(90_000);
+  let release: () => void = () => {};
+  const held = new Promise<void>((r) => (release = r));
+  await page.route("**/api/fill", async (route) => {
+    await held;
+    await route.continue().catch(() => {}); // the page may have aborted it by then
+  });
+  await signIn(page, "dispatcher");
+  await page.goto("/board?yard=NOR");
+  await expect(page.getByTestId("board-day")).toBeVisible();
+  await expect(async () => {
+    await page.getByTestId("fill-open").click();
+    await expect(page.getByTestId("fill-panel")).toBeVisible({ timeout: 1000 });
+  }).toPass({ timeout: 20_000 });
+  const panel = page.getByTestId("fill-panel");
+  const progress = panel.getByTestId("fill-progress");
+  await expect(progress).toBeVisible();
+  await expect(progress.getByRole("progressbar")).toBeVisible();
+  await progress.getByTestId("fill-cancel").click();
+  await expect(panel.getByTestId("fill-note")).toContainText("Cancelled");
+  await expect(progress).toHaveCount(0);
+  await expect(panel.getByTestId("fill-status")).toHaveCount(0);
+  release();
+
+  // Asked again (not held this time), it runs through its steps to a proposal.
+  await page.unroute("**/api/fill");
+  await panel.getByRole("button", { name: /Propose crews/ }).click();
+  await expect(panel.getByTestId("fill-status")).toBeVisible({ timeout: 60_000 });
+  await expect(panel.getByTestId("fill-note")).toHaveCount(0);
+});

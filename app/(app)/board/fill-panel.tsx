@@ -7,23 +7,18 @@
 // write, and the board refreshes.
 
 import { useQueryClient } from "@tanstack/react-query";
-import { useEffect, useId, useMemo, useRef, useState } from "react";
+import { useCallback, useEffect, useId, useMemo, useRef, useState } from "react";
 import { Badge, SafetyNote } from "@/components/status";
-import { fmtDate, POSITION_LABEL } from "@/lib/format";
+import { fmtDate } from "@/lib/format";
 import type { FillPreview } from "@/lib/fill/preview";
-import { CalloutButton } from "./callout-list";
+import { AcceptedResult, type AcceptAnswer } from "./fill-accepted";
+import { LeftOpen } from "./fill-left-open";
+import { FillProgressCard, SolverSettings } from "./fill-progress";
+import { ProposedCrews } from "./fill-proposed";
 import { call, HttpError } from "./use-board";
+import { useFillRun } from "./use-fill-run";
 
 type Stage = "idle" | "solving" | "preview" | "accepting" | "accepted";
-
-interface AcceptAnswer {
-  placed: number;
-  refused: number;
-  results: Array<{ positionId: number; workerId: number; ok: boolean; error?: string }>;
-  /** Issue 16: the proposed trucks, booked or refused. */
-  trucks?: Array<{ workOrderId: number; equipmentId: number; ok: boolean; error?: string }>;
-  blocks: Array<{ rule: string; workOrderId: string; workerId: string | null; message: string }>;
-}
 
 const pct = (g: number | null) => (g === null ? "unknown" : `${(Math.round(g * 1000) / 10).toFixed(1)} %`);
 
@@ -41,7 +36,7 @@ export function FillPanel({ day, yard, role }: { day: string; yard: string; role
   );
 }
 
-function FillDialog({ day, yard, onClose }: { day: string; yard: string; onClose: () => void }) {
+function FillDialog({ day, yard, onClose: close }: { day: string; yard: string; onClose: () => void }) {
   const qc = useQueryClient();
   const titleId = useId();
   const panel = useRef<HTMLDivElement>(null);
@@ -53,23 +48,38 @@ function FillDialog({ day, yard, onClose }: { day: string; yard: string; onClose
   const [chosen, setChosen] = useState<Set<number>>(new Set());
   const [elapsed, setElapsed] = useState(0);
   const [answer, setAnswer] = useState<AcceptAnswer | null>(null);
+  const [note, setNote] = useState<string | null>(null);
+  const fill = useFillRun();
   const started = useRef(false);
+  // Closing the panel mid-run cancels the run too (the server stops the fill).
+  const { cancel } = fill;
+  const onClose = useCallback(() => {
+    cancel();
+    close();
+  }, [cancel, close]);
 
   async function solve() {
     setStage("solving");
     setError(null);
+    setNote(null);
     setAnswer(null);
     setElapsed(0);
     const t0 = Date.now();
     const tick = setInterval(() => setElapsed((Date.now() - t0) / 1000), 200);
+    const before = preview;
     try {
-      const p = await call<FillPreview>("/api/fill", { method: "POST", body: JSON.stringify({ date: day, yard, timeLimitSeconds: limit, gap }) });
-      setPreview(p);
-      setChosen(new Set(p.proposals.map((x) => x.positionId)));
+      const r = await fill.run({ date: day, yard, timeLimitSeconds: limit, gap });
+      if (r.kind === "cancelled") {
+        setNote("Cancelled: the server stopped the fill; nothing was proposed or placed.");
+        setStage(before ? "preview" : "idle");
+        return;
+      }
+      setPreview(r.preview);
+      setChosen(new Set(r.preview.proposals.map((x) => x.positionId)));
       setStage("preview");
     } catch (err) {
       setError(err instanceof HttpError ? err.message : "The fill did not answer; check the connection and try again.");
-      setStage("idle");
+      setStage(before ? "preview" : "idle");
     } finally {
       clearInterval(tick);
     }
@@ -150,31 +160,7 @@ function FillDialog({ day, yard, onClose }: { day: string; yard: string; onClose
             <button type="button" className="btn-quiet" onClick={solve} disabled={stage === "solving" || stage === "accepting"}>
               {preview ? "Propose again" : "Propose crews"}
             </button>
-            <details className="text-sm">
-              <summary className="cursor-pointer text-ink-700">Solver settings</summary>
-              <div className="mt-2 flex flex-wrap items-end gap-3">
-            <label className="text-sm">
-              <span className="label">Time limit</span>
-              <select className="field w-auto" value={limit} onChange={(e) => setLimit(Number(e.target.value))} disabled={stage === "solving"}>
-                {[5, 10, 30, 60].map((s) => (
-                  <option key={s} value={s}>
-                    {s} s
-                  </option>
-                ))}
-              </select>
-            </label>
-            <label className="text-sm">
-              <span className="label">Optimality gap</span>
-              <select className="field w-auto" value={gap} onChange={(e) => setGap(Number(e.target.value))} disabled={stage === "solving"}>
-                {[0, 0.01, 0.05].map((g) => (
-                  <option key={g} value={g}>
-                    {g === 0 ? "0 % (proven best)" : `${g * 100} %`}
-                  </option>
-                ))}
-              </select>
-            </label>
-              </div>
-            </details>
+            <SolverSettings limit={limit} gap={gap} setLimit={setLimit} setGap={setGap} disabled={stage === "solving"} />
           </div>
 
           {error && (
@@ -183,24 +169,13 @@ function FillDialog({ day, yard, onClose }: { day: string; yard: string; onClose
             </p>
           )}
 
-          {stage === "solving" && (
-            <div className="card p-4" data-testid="fill-progress">
-              <p className="text-sm font-bold">Checking the crew rules for every seat and solving…</p>
-              <div
-                role="progressbar"
-                aria-label="Solving"
-                aria-valuemin={0}
-                aria-valuemax={limit}
-                aria-valuenow={Math.min(limit, Math.round(elapsed))}
-                className="mt-2 h-2 w-full overflow-hidden rounded bg-paper-200"
-              >
-                <div className="h-full bg-copper transition-all" style={{ width: `${Math.min(100, (elapsed / limit) * 100)}%` }} />
-              </div>
-              <p className="mt-1 text-xs text-ink-500">
-                {elapsed.toFixed(0)} s of at most {limit} s, then the crew rules re-check the answer.
-              </p>
-            </div>
+          {note && (
+            <p role="status" className="rounded-md bg-info-bg px-3 py-2 text-sm font-semibold text-info" data-testid="fill-note">
+              {note}
+            </p>
           )}
+
+          {stage === "solving" && <FillProgressCard progress={fill.progress} elapsed={elapsed} limit={limit} onCancel={fill.cancel} />}
 
           {preview && stage !== "solving" && (
             <>
@@ -228,147 +203,9 @@ function FillDialog({ day, yard, onClose }: { day: string; yard: string; onClose
               </div>
               <SafetyNote />
 
-              {preview.staffed.length > 0 && (
-                <section aria-label="Proposed crews" className="space-y-2">
-                  <h3 className="text-sm font-extrabold">Proposed</h3>
-                  {preview.staffed.map((o) => {
-                    const seats = byOrder.get(o.orderId) ?? [];
-                    const ids = seats.map((s) => s.positionId);
-                    const on = ids.filter((id) => chosen.has(id)).length;
-                    const partial = on > 0 && on < ids.length;
-                    return (
-                      <article key={o.orderId} className="card p-3" data-testid={`fill-order-${o.number}`}>
-                        <label className="flex items-start gap-2">
-                          <input
-                            type="checkbox"
-                            className="mt-1"
-                            checked={on === ids.length && ids.length > 0}
-                            ref={(el) => {
-                              if (el) el.indeterminate = partial;
-                            }}
-                            disabled={stage !== "preview"}
-                            onChange={(e) => toggle(ids, e.target.checked)}
-                            aria-label={`Take the whole crew for ${o.number}`}
-                          />
-                          <span className="min-w-0">
-                            <span className="text-[11px] font-bold uppercase tracking-wide text-copper">
-                              {o.number} · P{o.priority}
-                            </span>
-                            <span className="block truncate font-bold" title={o.title}>
-                              {o.title}
-                            </span>
-                          </span>
-                        </label>
-                        {partial && (
-                          <p className="mt-1">
-                            <Badge tone="warn">Part of a crew: the order stays short and the crew rules will block it</Badge>
-                          </p>
-                        )}
-                        {(preview.trucks ?? [])
-                          .filter((t) => t.orderId === o.orderId)
-                          .map((t) => (
-                            <p key={`t${t.equipmentId}`} className="mt-1 text-xs text-ink-700" data-testid={`fill-truck-${o.number}`}>
-                              <span className="font-extrabold uppercase tracking-wide text-ink-500">Truck</span> <span className="font-bold">{t.unitNumber}</span> {t.name} · {t.reason}
-                            </p>
-                          ))}
-                        {o.carried.map((f, i) => (
-                          <p key={i} className="mt-1 text-xs text-ink-700">
-                            <Badge tone="block">{f.rule}</Badge>{" "}
-                            {["EQUIPMENT", "EQUIPMENT_BOOKED", "RIGGING", "LOCATE"].includes(f.rule) ? "stays on the order (no crew change fixes it)" : "kept from a placement made before the fill"}: {f.message}
-                          </p>
-                        ))}
-                        {o.overridesLapse.map((v, i) => (
-                          <p key={`v${i}`} className="mt-1 text-xs text-ink-700">
-                            <Badge tone="waived">{v.rule} override lapses</Badge> it was given for the crew as it is now; a supervisor must give it again after this change.
-                          </p>
-                        ))}
-                        <ul className="mt-2 space-y-1.5">
-                          {seats.map((s) => (
-                            <li key={s.positionId} data-testid={`fill-seat-${s.positionId}`}>
-                              <label className="flex items-start gap-2 text-sm">
-                                <input
-                                  type="checkbox"
-                                  className="mt-1"
-                                  checked={chosen.has(s.positionId)}
-                                  disabled={stage !== "preview"}
-                                  onChange={(e) => toggle([s.positionId], e.target.checked)}
-                                  aria-label={`${POSITION_LABEL[s.position] ?? s.position} on ${o.number}: ${s.workerName}`}
-                                />
-                                <span>
-                                  <span className="text-[11px] font-extrabold uppercase tracking-wide text-ink-500">{POSITION_LABEL[s.position] ?? s.position}</span>{" "}
-                                  <span className="font-bold">{s.workerName}</span>
-                                  <span className="block text-xs text-ink-700">{s.reasons.join(" · ")}</span>
-                                </span>
-                              </label>
-                            </li>
-                          ))}
-                        </ul>
-                      </article>
-                    );
-                  })}
-                </section>
-              )}
-
-              {preview.openOrders.length > 0 && (
-                <section aria-label="Left open" className="space-y-2" data-testid="fill-open-orders">
-                  <h3 className="text-sm font-extrabold">Left for you</h3>
-                  {preview.openOrders.map((o) => (
-                    <article key={o.orderId} className="card p-3" data-testid={`fill-left-${o.number}`}>
-                      <p className="text-[11px] font-bold uppercase tracking-wide text-copper">
-                        {o.number} · P{o.priority}
-                      </p>
-                      <p className="truncate font-bold" title={o.title}>
-                        {o.title}
-                      </p>
-                      <p className="mt-1 text-sm" data-testid="fill-left-reason">
-                        <Badge tone="block">{o.rule ?? "Not staffed"}</Badge> {o.reason}
-                      </p>
-                      <ul className="mt-2 space-y-2">
-                        {preview.open
-                          .filter((s) => s.orderId === o.orderId)
-                          .map((s) => (
-                            <OpenSeatRow key={s.positionId} seat={s} day={day} yard={yard} />
-                          ))}
-                      </ul>
-                    </article>
-                  ))}
-                </section>
-              )}
-
-              {stage === "accepted" && answer && (
-                <section className="card p-3" data-testid="fill-result" aria-live="polite">
-                  <h3 className="text-sm font-extrabold">Accepted</h3>
-                  <p className="mt-1 text-sm">
-                    <Badge tone="clear">{answer.placed} placed</Badge>{" "}
-                    {answer.refused > 0 && <Badge tone="block">{answer.refused} refused</Badge>}
-                  </p>
-                  <ul className="mt-1 space-y-1 text-xs">
-                    {answer.results
-                      .filter((r) => !r.ok)
-                      .map((r) => (
-                        <li key={r.positionId}>
-                          <Badge tone="block">Refused</Badge> {preview.proposals.find((p) => p.positionId === r.positionId)?.workerName}: {r.error}
-                        </li>
-                      ))}
-                  </ul>
-                  <p className="mt-2 text-sm" data-testid="fill-recheck">
-                    {answer.blocks.length === 0 ? (
-                      <Badge tone="clear">Re-checked by the crew rules: no blocks on the orders touched</Badge>
-                    ) : (
-                      <Badge tone="block">Re-checked: {answer.blocks.length} block{answer.blocks.length > 1 ? "s" : ""} remain on the orders touched</Badge>
-                    )}
-                  </p>
-                  {answer.blocks.length > 0 && (
-                    <ul className="mt-1 space-y-1 text-xs">
-                      {answer.blocks.map((f, i) => (
-                        <li key={i}>
-                          <Badge tone="block">{f.rule}</Badge> {f.message}
-                        </li>
-                      ))}
-                    </ul>
-                  )}
-                </section>
-              )}
+              {preview.staffed.length > 0 && <ProposedCrews preview={preview} byOrder={byOrder} chosen={chosen} enabled={stage === "preview"} toggle={toggle} />}
+              {preview.openOrders.length > 0 && <LeftOpen preview={preview} day={day} yard={yard} />}
+              {stage === "accepted" && answer && <AcceptedResult answer={answer} preview={preview} />}
             </>
           )}
         </div>
@@ -386,39 +223,5 @@ function FillDialog({ day, yard, onClose }: { day: string; yard: string; onClose
         )}
       </div>
     </div>
-  );
-}
-
-function OpenSeatRow({ seat, day, yard }: { seat: FillPreview["open"][number]; day: string; yard: string }) {
-  const [show, setShow] = useState(false);
-  return (
-    <li className="rounded-md border border-rule bg-white px-2 py-1.5 text-sm" data-testid={`fill-open-seat-${seat.positionId}`}>
-      <div className="flex flex-wrap items-start justify-between gap-2">
-        <div className="min-w-0">
-          <span className="text-[11px] font-extrabold uppercase tracking-wide text-ink-500">{POSITION_LABEL[seat.position] ?? seat.position}</span>{" "}
-          <span className="text-xs text-ink-700" data-testid="fill-open-summary">
-            {seat.eligibleCount > 0 ? `${seat.eligibleCount} eligible` : "No one eligible"}
-            {seat.summary ? `; kept out: ${seat.summary}` : ""}
-          </span>
-        </div>
-        <CalloutButton positionId={seat.positionId} day={day} yard={yard} />
-      </div>
-      {seat.candidates.length > 0 && (
-        <>
-          <button type="button" className="mt-1 text-xs font-bold text-ink-700 underline-offset-2 hover:underline" aria-expanded={show} onClick={() => setShow((v) => !v)}>
-            {show ? "Hide" : "Show"} who is closest ({seat.excludedCount})
-          </button>
-          {show && (
-            <ul className="mt-1 space-y-1">
-              {seat.candidates.map((c) => (
-                <li key={c.workerId} className="text-xs">
-                  <Badge tone="block">{c.excludedBy}</Badge> <span className="font-semibold">{c.name}</span> — {c.message}
-                </li>
-              ))}
-            </ul>
-          )}
-        </>
-      )}
-    </li>
   );
 }
