@@ -5,7 +5,7 @@ import { audit, type Actor } from "@/lib/audit/data";
 import { crewHash } from "@/lib/board/data";
 import { findingsAfter } from "./data";
 import { withConflictRetry } from "@/lib/db";
-import { bumpOrders } from "./data-booking";
+import { bumpOrders } from "@/lib/booking/data";
 import { boardEvent } from "@/lib/events/data";
 
 /**

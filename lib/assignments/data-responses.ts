@@ -2,7 +2,7 @@ import type { Knex } from "knex";
 import { ApiError } from "@/lib/api/http";
 import { audit, type Actor } from "@/lib/audit/data";
 import { withConflictRetry } from "@/lib/db";
-import { bumpOrders } from "./data-booking";
+import { bumpOrders } from "@/lib/booking/data";
 import { boardEvent } from "@/lib/events/data";
 import { crewHash } from "@/lib/board/data";
 import { lapseOverrides } from "./data-lapses";

@@ -23,7 +23,7 @@ import { parsePhoneNumberFromString } from "libphonenumber-js";
 import { ApiError } from "@/lib/api/http";
 import { audit, type Actor } from "@/lib/audit/data";
 import { loadBoard, unresolvedBlocks } from "@/lib/board/data";
-import { bumpOrders } from "@/lib/assignments/data-booking";
+import { bumpOrders } from "@/lib/booking/data";
 import { boardEvent } from "@/lib/events/data";
 import { withConflictRetry } from "@/lib/db";
 import { pickYard } from "@/lib/yards/data";
@@ -212,7 +212,7 @@ export async function sendCrews(db: Knex, user: SessionActor, input: { date: str
     const orderIds = locked.filter((o) => o.status !== "done").map((o) => o.id as number);
     // The block check below relies on these locks: write the rows too (booking_seq), so a crew
     // change committed on another Galera node meanwhile, or a second Send crews there, collides
-    // at commit and this send runs again on what is then committed (lib/assignments/data-booking.ts).
+    // at commit and this send runs again on what is then committed (lib/booking/data.ts).
     await bumpOrders(trx, locked.map((o) => o.id as number));
 
     // The board as it stands under the lock: no unresolved block may remain.

@@ -7,7 +7,7 @@ import type { Finding } from "@/lib/rules/types";
 import { audit, type Actor } from "@/lib/audit/data";
 import { buildSnapshot, crewHash, liveAssignments, orderQuery, type OrderRow } from "@/lib/board/data";
 import { refreshBriefingState } from "@/lib/briefings/data";
-import { bumpWorkers } from "./data-booking";
+import { bumpWorkers } from "@/lib/booking/data";
 import { boardEvent } from "@/lib/events/data";
 import { lapseOverrides, type CrewChangeBy } from "./data-lapses";
 
@@ -61,7 +61,7 @@ async function lockOrders(trx: Knex.Transaction, organisationId: number, ids: nu
 /**
  * Locks the worker by bumping their booking_seq (a write, not only FOR UPDATE: on a Galera
  * cluster a lock holds only on its own node, and two placements of one person on two nodes
- * must write the same row for certification to refuse the second; lib/assignments/data-booking.ts).
+ * must write the same row for certification to refuse the second; lib/booking/data.ts).
  */
 async function lockWorker(trx: Knex.Transaction, organisationId: number, workerId: number) {
   await bumpWorkers(trx, [workerId]);

@@ -4,7 +4,7 @@
 import type { Knex } from "knex";
 import { ApiError } from "@/lib/api/http";
 import { audit, type Actor } from "@/lib/audit/data";
-import { bumpWorkers } from "@/lib/assignments/data-booking";
+import { bumpWorkers } from "@/lib/booking/data";
 import { boardEvent } from "@/lib/events/data";
 import { fieldError, instant } from "@/lib/orders/data";
 import { addDays } from "@/lib/time/days";

@@ -3,7 +3,7 @@
 import type { Knex } from "knex";
 import { ApiError } from "@/lib/api/http";
 import { audit, type Actor } from "@/lib/audit/data";
-import { bumpWorkers } from "@/lib/assignments/data-booking";
+import { bumpWorkers } from "@/lib/booking/data";
 import { boardEvent } from "@/lib/events/data";
 import { getPolicy } from "@/lib/policies/data";
 import { fieldError, instant } from "@/lib/orders/data";
@@ -195,7 +195,7 @@ export async function recordWorkedTime(trx: Knex.Transaction, actor: Actor, t: W
   const start = instant(t.start, t.tz, "start");
   const end = instant(t.end, t.tz, "end");
   if (end <= start) throw fieldError("end", "The end must be after the start.");
-  // The overlap check below relies on the worker's lock: write it too (lib/assignments/data-booking.ts).
+  // The overlap check below relies on the worker's lock: write it too (lib/booking/data.ts).
   await bumpWorkers(trx, [Number(t.worker.id)]);
   const clash = await trx("time_records")
     .where({ worker_id: t.worker.id })

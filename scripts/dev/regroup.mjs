@@ -121,6 +121,8 @@ export const MOVES = [
   ["lib/auth/sessions.ts", "lib/users/data-sessions.ts"],
   // a server component that reads the database is a page part, not a components/ piece
   ["components/my-credentials.tsx", "app/(app)/credentials/my-credentials.tsx"],
+  // "write what you lock": the booking_seq bumps every domain that books people or orders takes
+  ["lib/assignments/data-booking.ts", "lib/booking/data.ts"],
 ];
 
 const args = new Set(process.argv.slice(2));
