@@ -20,6 +20,7 @@
 import { spawn, spawnSync, type ChildProcess } from "node:child_process";
 import { existsSync, mkdirSync, readFileSync, writeFileSync } from "node:fs";
 import { cpus, loadavg } from "node:os";
+import http from "node:http";
 import path from "node:path";
 import autocannon from "autocannon";
 import knex from "knex";
@@ -163,6 +164,19 @@ async function waitFor(url: string, child: ChildProcess, ms = 90_000) {
   throw new Error(`no answer from ${url} within ${ms / 1000} s`);
 }
 
+/** The bytes that travel (still compressed): node:http does not decode the body. */
+function wireBytes(url: string, headers: Record<string, string>): Promise<number> {
+  return new Promise((resolve, reject) => {
+    http
+      .get(url, { headers }, (res) => {
+        let n = 0;
+        res.on("data", (d: Buffer) => (n += d.length));
+        res.on("end", () => resolve(n));
+      })
+      .on("error", reject);
+  });
+}
+
 interface Run {
   p50: number;
   p95: number;
@@ -235,6 +249,14 @@ async function benchApi() {
     const board = await c.json(boardPath);
     if (board.status !== 200) throw new Error(`board: ${board.status}`);
     const boardBytes = JSON.stringify(board.body).length;
+    // Issue 19: the board client asks for the answer compressed once per change (x-board-gzip)
+    // and, once it holds a board, for a patch from the version it holds (since + cursor).
+    const boardHeaders = { ...readHeaders, "x-board-gzip": "1" };
+    const held = await fetch(base + boardPath, { headers: boardHeaders });
+    const heldBytes = (await held.arrayBuffer()).byteLength; // fetch undoes the gzip: count the wire size below
+    const boardVersion = held.headers.get("x-board-version");
+    const boardGzipBytes = await wireBytes(base + boardPath, boardHeaders);
+    const slimPath = `${boardPath}&since=${boardVersion}&cursor=${board.body.cursor}`;
 
     // Drop pairs: an open seat on a distinct North order and a worker free all day, per connection.
     const busy = new Set<number>((await db("assignments as a").join("work_orders as o", "o.id", "a.work_order_id").where("o.work_date", day).whereNotNull("a.holds_position").pluck("a.worker_id")) as number[]);
@@ -307,7 +329,11 @@ async function benchApi() {
     await sweep();
     log(`health, board and drop, ${opts.duration} s each at ${opts.connections} connections`);
     const health = await run("/api/health");
-    const boardRun = await run(boardPath);
+    const boardRun = await run(boardPath, { headers: boardHeaders });
+    // What an open board asks after a change: a patch against the version it holds.
+    const slimRun = await run(slimPath, { headers: boardHeaders });
+    const slim = await fetch(base + slimPath, { headers: boardHeaders });
+    const slimBytes = (await slim.arrayBuffer()).byteLength;
     const drop = await drops(opts.duration);
     const leftBehind = await sweep();
     return {
@@ -319,6 +345,13 @@ async function benchApi() {
       durationSeconds: opts.duration,
       healthMs: health,
       boardMs: boardRun,
+      boardHeldBytes: heldBytes,
+      boardSlimWireBytes: await wireBytes(base + slimPath, boardHeaders),
+      boardGzipBytes,
+      boardSlimMs: slimRun,
+      boardSlimBytes: slimBytes,
+      boardSlimAnswer: slim.headers.get("x-board-answer"),
+      boardSlimToHealthP95: round(slimRun.p95 / health.p95, 1),
       dropMs: drop,
       boardToHealthP95: round(boardRun.p95 / health.p95, 1),
       dropToHealthP95: round(drop.p95 / health.p95, 1),
@@ -408,6 +441,7 @@ function table(r: Record<string, any>) {
     const a = r.api;
     rows.push(["GET /api/health (p50 / p95)", `${a.healthMs.p50} / ${a.healthMs.p95} ms (${a.healthMs.rps} req/s)`, "", ""]);
     rows.push(["GET /api/board (p50 / p95)", `${a.boardMs.p50} / ${a.boardMs.p95} ms (${a.boardMs.rps} req/s, ${a.boardMs.non2xx} non-2xx)`, "≤ 3× health p95", `${a.boardToHealthP95}× ${ok(a.boardToHealthP95 <= 3)}`]);
+    rows.push([`GET /api/board slim: a patch for an open board (p50 / p95)`, `${a.boardSlimMs.p50} / ${a.boardSlimMs.p95} ms (${a.boardSlimMs.rps} req/s; ${a.boardSlimBytes} bytes, ${a.boardSlimAnswer})`, "≤ 3× health p95", `${a.boardSlimToHealthP95}× ${ok(a.boardSlimToHealthP95 <= 3)}`]);
     rows.push(["drop: place + take off, /api/assignments (p50 / p95)", `${a.dropMs.p50} / ${a.dropMs.p95} ms (${a.dropMs.rps} req/s, ${a.dropMs.non2xx} non-2xx)`, "≤ 2× health p95", `${a.dropToHealthP95}× ${ok(a.dropToHealthP95 <= 2)}`]);
   }
   rows.push(["notification drain", r.drain.measured ? `${r.drain.perSecond} messages/s (${r.drain.sent} in ${r.drain.seconds} s)` : r.drain.note, "", ""]);
