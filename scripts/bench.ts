@@ -25,9 +25,7 @@ import path from "node:path";
 import autocannon from "autocannon";
 import knex from "knex";
 import { dbConfig } from "../knexfile";
-import { fill } from "../lib/fill/fill";
-import { getHighs, Lp, solveLp } from "../lib/fill/highs";
-import { fillScenario } from "../lib/fill/scenario";
+import { benchFill as runFillBench, fillAim } from "./bench/fill";
 import { checkDay, createEngine } from "../lib/rules/engine";
 import { generateDay } from "../lib/rules/generate";
 import { randomDrops } from "../lib/rules/random-drops";
@@ -99,40 +97,8 @@ function benchRules() {
 }
 
 // --- 2. fill --------------------------------------------------------------------------------------
-async function benchFill() {
-  const { problem, removed } = fillScenario({ workers: opts.workers, orders: opts.orders, days: opts.days, seed: opts.seed });
-  // HiGHS's WebAssembly is compiled once per process: load it (and run one tiny solve) first,
-  // and report that one-off cost on its own.
-  let t = performance.now();
-  await getHighs();
-  const warm = new Lp();
-  warm.col(0, 1, true);
-  warm.row([[0, 1]], -Infinity, 1);
-  await solveLp(warm, [-1], { timeLimitSeconds: 1, gap: 0 });
-  const loadMs = performance.now() - t;
-  const openSeats = problem.orders.reduce((n, o) => n + o.seats.filter((s) => !s.workerId).length, 0);
-  t = performance.now();
-  const r = await fill(problem, { timeLimitSeconds: opts.fillLimit, gap: opts.fillGap });
-  const wallMs = performance.now() - t;
-  const ordersWithOpen = problem.orders.filter((o) => o.seats.some((s) => !s.workerId)).length;
-  return {
-    openSeats,
-    removedPlacements: removed,
-    ordersWithOpenSeats: ordersWithOpen,
-    highsLoadMs: round(loadMs, 0),
-    wallMs: round(wallMs, 0),
-    status: r.status,
-    optimal: r.optimal,
-    gap: r.gap,
-    positionsFilled: r.proposals.length,
-    ordersStaffed: r.staffed.length,
-    ordersLeftOpen: r.openOrders.length,
-    objective: r.objective,
-    timings: r.timings,
-    size: r.size,
-    settings: r.settings,
-  };
-}
+// scripts/bench/fill.ts (also `npm run bench:fill` on its own).
+const benchFill = () => runFillBench(opts);
 
 // --- 3. the API -----------------------------------------------------------------------------------
 function sh(cmd: string, env: Record<string, string> = {}) {
@@ -430,10 +396,11 @@ function table(r: Record<string, any>) {
   rows.push(["single-drop re-check (median / p95)", `${r.rules.recheckMs.p50} / ${r.rules.recheckMs.p95} ms`, "< 2 ms", ok(r.rules.recheckMs.p50 < 2)]);
   if (r.fill) {
     const f = r.fill;
-    const gapOk = f.gap !== null && f.gap <= 0.01;
-    rows.push(["fill: time (wall)", `${(f.wallMs / 1000).toFixed(1)} s (HiGHS load ${f.highsLoadMs} ms, once)`, "≤ 10 s", ok(f.wallMs <= 10_000)]);
+    const aim = fillAim(f);
+    rows.push(["fill: time (wall)", `${(f.wallMs / 1000).toFixed(1)} s (CPU ${(f.cpuMs / 1000).toFixed(1)} s; HiGHS load ${f.highsLoadMs} ms, once)`, "≤ 10 s", ok(aim.timeOk)]);
     const gapText = f.gap === null ? "none" : `${(f.gap * 100).toFixed(2)} %${f.size.pricingConverged || f.size.complete ? "" : " (bound not closed: pricing stopped at the limit)"}`;
-    rows.push(["fill: status / gap", `${f.status}${f.optimal ? " (proven)" : ""} / ${gapText}`, "≤ 1 %", ok(gapOk)]);
+    rows.push(["fill: status / gap", `${f.status}${f.optimal ? " (proven)" : ""} / ${gapText}`, "≤ 1 %", ok(aim.gapOk)]);
+    rows.push(["fill: aim (≤ 10 s at ≤ 1 % gap)", aim.met ? "both phases within the time, gap proven" : aim.line.replace(/^.*?— /, ""), "met", aim.met ? "met" : "NOT MET"]);
     rows.push(["fill: positions filled", `${f.positionsFilled} of ${f.openSeats} open (${f.ordersStaffed} orders staffed, ${f.ordersLeftOpen} left)`, "", ""]);
   }
   if (r.api.skipped) rows.push(["API", r.api.skipped, "", "skipped"]);
@@ -459,6 +426,7 @@ async function main() {
   if (!flag("skip-fill")) {
     log(`fill open positions (time limit ${opts.fillLimit} s, gap ${opts.fillGap * 100} %)`);
     fillResult = await benchFill();
+    log(fillAim(fillResult).line);
   }
   let api: Record<string, unknown>;
   if (flag("skip-api")) api = { skipped: "--skip-api: the API part was not measured" };
