@@ -156,6 +156,8 @@ export function applyBoardPatch(base: BoardPayload, patch: BoardPatch): BoardPay
     const order = p.order ?? [...current.map((x) => spec.key(x)).filter((k) => byKey.has(k)), ...added];
     put(spec.path, order.map((k) => byKey.get(k)));
   }
-  out.snapshot = snapshot;
+  // Untouched, the snapshot keeps its identity: the browser's rule engine is not rebuilt.
+  const touched = [...Object.keys(patch.set), ...patch.unset, ...Object.keys(patch.collections)].some((k) => k.startsWith("snapshot."));
+  out.snapshot = touched ? snapshot : base.snapshot;
   return out as unknown as BoardPayload;
 }
