@@ -1,3 +1,4 @@
+import "@/lib/server-only";
 import knex, { type Knex } from "knex";
 import { dbConfig } from "@/knexfile";
 

@@ -1,4 +1,5 @@
 // The server's re-check after an equipment booking (server side).
+import "@/lib/server-only";
 import type { Knex } from "knex";
 import { findingsAfter } from "@/lib/assignments/data";
 

@@ -1,6 +1,7 @@
 // An inbound text (the provider's webhook, already signature-checked): record it once, act on
 // it, and say what to answer. A repeated MessageSid (the provider retries a webhook it thinks
 // failed) hits the unique key on inbound_messages.provider_sid and changes nothing.
+import "@/lib/server-only";
 import type { Knex } from "knex";
 import { parsePhoneNumberFromString } from "libphonenumber-js";
 import { audit } from "@/lib/audit/data";

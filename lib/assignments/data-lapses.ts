@@ -1,6 +1,7 @@
 // Issue 18, point 13: an override is given for one crew (its crew hash). When the crew changes,
 // the override lapses, and the supervisor who gave it is told: an in-app notice and an e-mail
 // through the notification outbox, both written in the transaction that changed the crew.
+import "@/lib/server-only";
 import type { Knex } from "knex";
 import { fmtDate, fmtDateTimeZone } from "@/lib/format";
 import { appPublicUrl } from "@/lib/notify/config";

@@ -17,6 +17,7 @@
 // Each person gets one text (when they have an E.164 phone and have not opted out) and one
 // e-mail (when they have an address) per change. Outbox dedupe keys are
 // kind:assignment:version:channel, so running the same send twice writes nothing twice.
+import "@/lib/server-only";
 import { createHash, randomUUID } from "node:crypto";
 import type { Knex } from "knex";
 import { parsePhoneNumberFromString } from "libphonenumber-js";

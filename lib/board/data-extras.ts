@@ -1,3 +1,4 @@
+import "@/lib/server-only";
 import type { Knex } from "knex";
 import { ensureOccurrences } from "@/lib/orders/data-occurrences";
 import { onCallAt } from "@/lib/rotations/data-on-call";

@@ -3,6 +3,7 @@
 // memory until the next change: a full answer on a cold start or a gap, otherwise a patch from
 // the version the browser holds (lib/board/patch.ts), also compressed once per (from, to).
 // Per app instance: another instance that never served the browser's version answers in full.
+import "@/lib/server-only";
 import { createHash } from "node:crypto";
 import { gzipSync } from "node:zlib";
 import type { Knex } from "knex";

@@ -8,6 +8,7 @@
 // steps). The follower therefore re-reads from the lowest id it has not settled: a missing id
 // stays open for HOLE_MS (a rolled-back insert never appears), and a late row is still handed
 // out once when it appears.
+import "@/lib/server-only";
 import type { Knex } from "knex";
 
 export interface HubEvent {

@@ -1,3 +1,4 @@
+import "@/lib/server-only";
 import { createHash } from "node:crypto";
 import type { Knex } from "knex";
 import type { AssignmentStatus, BoardPayload, OrderCard, OverrideView, PoolWorker, Seat } from "@/lib/board/model";

@@ -1,3 +1,4 @@
+import "@/lib/server-only";
 import type { Knex } from "knex";
 
 // "Write what you lock" (issue 17, db/migrations/20261203_5000_booking_seq.ts): bumping a row's

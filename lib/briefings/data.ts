@@ -10,6 +10,7 @@
 //
 // Every write locks the order row first, then the briefing row, writes an audit row and a
 // board event ("briefing") in the same transaction.
+import "@/lib/server-only";
 import type { Knex } from "knex";
 import { completionTooEarly, emergencyRoleIssues, RESCUE_CODES, type BriefingFacts } from "@/lib/briefings/checks";
 import { ApiError } from "@/lib/api/http";

@@ -1,3 +1,4 @@
+import "@/lib/server-only";
 import { randomUUID } from "node:crypto";
 import type { Knex } from "knex";
 import { audit, type Actor } from "@/lib/audit/data";

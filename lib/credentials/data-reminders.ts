@@ -1,3 +1,4 @@
+import "@/lib/server-only";
 import { hostname } from "node:os";
 import type { Knex } from "knex";
 import { audit } from "@/lib/audit/data";

@@ -1,5 +1,6 @@
 // The day sheet's data (issue 18): the boards of one day, per yard, read through the board's
 // own loader so crews, trucks and findings are exactly the board's. Server only.
+import "@/lib/server-only";
 import type { Knex } from "knex";
 import { loadBoard } from "@/lib/board/data";
 import { findingKey } from "@/lib/board/model";

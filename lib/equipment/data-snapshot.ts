@@ -1,5 +1,6 @@
 // The equipment part of a rule snapshot (server side). Kept apart from ./board.ts so that
 // lib/board/data.ts can import it without an import cycle.
+import "@/lib/server-only";
 import type { Knex } from "knex";
 import type { DaySnapshot, WorkOrder } from "@/lib/rules/types";
 import { equipmentForSnapshot, listEquipment, type EquipmentBooking } from "./data";

@@ -1,11 +1,12 @@
-// The equipment register and equipment bookings on Knex (server side only: the project has no
-// "server-only" package; like lib/data/*, nothing in a client component imports this file).
+// The equipment register and equipment bookings on Knex (server side only: lib/server-only.ts;
+// like every data module, nothing in a client component imports this file).
 //
 // Bookings follow the assignment write path (lib/assignments/data.ts): one READ COMMITTED
 // transaction locks the order, then the truck's row, checks the truck is not on an overlapping
 // order, inserts, and WRITES the truck's row (booking_seq + 1). The row lock serialises two
 // bookings of one truck on one server; the write makes a Galera cluster's certification refuse
 // the second of two bookings made on different nodes (where FOR UPDATE locks only locally).
+import "@/lib/server-only";
 import type { Knex } from "knex";
 import { ApiError } from "@/lib/api/http";
 import { audit, type Actor } from "@/lib/audit/data";

@@ -1,3 +1,4 @@
+import "@/lib/server-only";
 import type { Knex } from "knex";
 
 // Board events: a table every app instance reads, so a change made through one instance

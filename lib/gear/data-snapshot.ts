@@ -1,3 +1,4 @@
+import "@/lib/server-only";
 import type { Knex } from "knex";
 import type { DaySnapshot } from "@/lib/rules/types";
 import { gearForSnapshot, liftsForOrders } from "./data";

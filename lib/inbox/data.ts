@@ -1,3 +1,4 @@
+import "@/lib/server-only";
 import type { Knex } from "knex";
 import type { MessagesFilter } from "@/lib/notify/schema";
 import { audit, type Actor } from "@/lib/audit/data";

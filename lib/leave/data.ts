@@ -1,6 +1,7 @@
 // Leave, training and sickness on Knex. HR and supervisors enter approved entries; a
 // lineworker asks for their own (requested) and a supervisor approves or refuses. Requested
 // and approved entries of one person may not overlap.
+import "@/lib/server-only";
 import type { Knex } from "knex";
 import { ApiError } from "@/lib/api/http";
 import { audit, type Actor } from "@/lib/audit/data";

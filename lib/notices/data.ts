@@ -1,4 +1,5 @@
 // In-app notices to one user (issue 18, point 13). Server only (Knex).
+import "@/lib/server-only";
 import type { Knex } from "knex";
 import type { NoticeView } from "./model";
 

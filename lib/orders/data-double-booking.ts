@@ -1,3 +1,4 @@
+import "@/lib/server-only";
 import type { Knex } from "knex";
 import { ApiError } from "@/lib/api/http";
 

@@ -2,6 +2,7 @@
 // lib/time/recurrence.ts (which client components import directly) plus ensureOccurrences,
 // which the board calls before loading a day. Server only.
 
+import "@/lib/server-only";
 import type { Knex } from "knex";
 import { extendSeries } from "@/lib/orders/data-series";
 

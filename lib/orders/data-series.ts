@@ -8,6 +8,7 @@
 // (detached). Everything else is kept as it is — an occurrence with assignments is never
 // deleted — and reported back so the dispatcher can review it.
 
+import "@/lib/server-only";
 import type { Knex } from "knex";
 import { audit, type Actor } from "@/lib/audit/data";
 import { boardEvent } from "@/lib/events/data";

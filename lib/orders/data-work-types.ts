@@ -1,3 +1,4 @@
+import "@/lib/server-only";
 import type { Knex } from "knex";
 import type { Position } from "@/lib/rules/types";
 import type { WorkTypeView } from "@/lib/orders/model";

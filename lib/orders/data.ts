@@ -1,5 +1,6 @@
 // Work orders on Knex: list, read, create, update, cancel. Times are stored UTC; the API and
 // forms speak wall-clock time in the yard's zone (zonedWallTimeToEpoch / epochToZonedWallTime).
+import "@/lib/server-only";
 import type { Knex } from "knex";
 import { assertNoDoubleBooking } from "@/lib/orders/data-double-booking";
 import { ApiError } from "@/lib/api/http";

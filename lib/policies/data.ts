@@ -1,3 +1,4 @@
+import "@/lib/server-only";
 import type { Knex } from "knex";
 import type { Policy, RuleCode } from "@/lib/rules/types";
 import type { PolicyInput } from "@/lib/policies/model";

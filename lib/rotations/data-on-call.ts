@@ -9,6 +9,7 @@
 // database. Before the first hand-over nobody is on call; when a rule with COUNT or UNTIL has
 // run out, the rotation is over at its last hand-over.
 
+import "@/lib/server-only";
 import type { Knex } from "knex";
 import { floating } from "@/lib/time/recurrence";
 import { onCallFromMembers, type OnCall } from "./schedule";

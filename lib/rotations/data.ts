@@ -1,4 +1,5 @@
 // On-call rotations and call-outs on Knex.
+import "@/lib/server-only";
 import type { Knex } from "knex";
 import { ApiError } from "@/lib/api/http";
 import { audit, type Actor } from "@/lib/audit/data";

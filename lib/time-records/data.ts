@@ -1,5 +1,6 @@
 // Time records: what each person actually worked (shifts, orders marked done, call-outs,
 // manual entries). The REST rule reads them; the Time page shows a week per worker.
+import "@/lib/server-only";
 import type { Knex } from "knex";
 import { ApiError } from "@/lib/api/http";
 import { audit, type Actor } from "@/lib/audit/data";

@@ -1,3 +1,4 @@
+import "@/lib/server-only";
 import { createHash, randomBytes } from "node:crypto";
 import type { Knex } from "knex";
 import type { Role } from "@/lib/users/roles";

@@ -1,3 +1,4 @@
+import "@/lib/server-only";
 import { createHash, randomBytes } from "node:crypto";
 import bcrypt from "bcryptjs";
 import type { Knex } from "knex";

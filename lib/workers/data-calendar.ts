@@ -1,6 +1,7 @@
 // The per-worker calendar feed (iCalendar, through the `ics` package) behind a secret link:
 // /api/calendar/<workers.calendar_token>. Lists the orders the worker holds a seat on (live
 // assignments) from 14 days back to 60 days ahead. Server only.
+import "@/lib/server-only";
 import { randomBytes } from "node:crypto";
 import type { Knex } from "knex";
 import { createEvents, type EventAttributes } from "ics";
