@@ -2,6 +2,9 @@
 
 import { useRouter } from "next/navigation";
 import { useCallback, useEffect, useRef, useState } from "react";
+import { SelectField, TextField } from "@/components/form/fields";
+import { apiFetch, asFailure } from "@/lib/api/client";
+import { useApiMutation } from "@/lib/api/mutations";
 
 export interface PhoneOwner {
   workerId: number;
@@ -43,7 +46,6 @@ export function PhoneClient({ owners, initialPhone, fromNumber }: { owners: Phon
   const [phone, setPhone] = useState<string | null>(initialPhone);
   const [texts, setTexts] = useState<Text[]>([]);
   const [draft, setDraft] = useState("");
-  const [busy, setBusy] = useState(false);
   const [error, setError] = useState<string | null>(null);
   const [loaded, setLoaded] = useState(false);
   const listRef = useRef<HTMLOListElement>(null);
@@ -52,13 +54,11 @@ export function PhoneClient({ owners, initialPhone, fromNumber }: { owners: Phon
   const load = useCallback(async () => {
     if (!phone) return;
     try {
-      const res = await fetch(`/api/phone?phone=${encodeURIComponent(phone)}`, { cache: "no-store" });
-      const body = await res.json();
-      if (!res.ok) throw new Error(body.error ?? `Could not read the texts (${res.status}).`);
+      const body = await apiFetch<{ messages?: Text[] }>(`/api/phone?phone=${encodeURIComponent(phone)}`);
       setTexts(body.messages ?? []);
       setError(null);
     } catch (err) {
-      setError(err instanceof Error ? err.message : "Could not read the texts.");
+      setError(asFailure(err).message);
     } finally {
       setLoaded(true);
     }
@@ -76,26 +76,22 @@ export function PhoneClient({ owners, initialPhone, fromNumber }: { owners: Phon
     listRef.current?.scrollTo({ top: listRef.current.scrollHeight });
   }, [texts.length]);
 
-  async function send(body: string) {
-    if (!phone || !body.trim()) return;
-    setBusy(true);
-    setError(null);
-    try {
-      const res = await fetch("/api/phone", {
-        method: "POST",
-        headers: { "content-type": "application/json" },
-        body: JSON.stringify({ from: phone, body }),
-      });
-      const r = await res.json();
-      if (!res.ok) throw new Error(r.error ?? `Not delivered (${res.status}).`);
-      if (r.status !== 200) throw new Error(`The app answered the webhook with ${r.status}.`);
+  // A reply goes to the SMS fake, which signs it and delivers it to the app's webhook; the
+  // answer carries the webhook's own status.
+  const reply = useApiMutation<string, { status: number }>({
+    request: (body) => ({ url: "/api/phone", method: "POST", body: { from: phone, body } }),
+    onSuccess: async (r) => {
+      if (r.status !== 200) return setError(`The app answered the webhook with ${r.status}.`);
       setDraft("");
       await load();
-    } catch (err) {
-      setError(err instanceof Error ? err.message : "Not delivered.");
-    } finally {
-      setBusy(false);
-    }
+    },
+    onFailure: (f) => setError(f.message),
+  });
+  const busy = reply.isPending;
+  function send(body: string) {
+    if (!phone || !body.trim()) return;
+    setError(null);
+    void reply.submit(body);
   }
 
   const codes = openCodes(texts);
@@ -142,12 +138,10 @@ export function PhoneClient({ owners, initialPhone, fromNumber }: { owners: Phon
       </section>
 
       <section className="order-1" aria-label="Phone">
-        <label className="label" htmlFor="phone-owner">
-          Phone of
-        </label>
-        <select
+        <SelectField
           id="phone-owner"
-          className="field mb-3"
+          label="Phone of"
+          wrapperClassName="mb-3"
           value={phone ?? ""}
           onChange={(e) => {
             setPhone(e.target.value);
@@ -159,7 +153,7 @@ export function PhoneClient({ owners, initialPhone, fromNumber }: { owners: Phon
               {o.name} · {o.display} · {o.yard}
             </option>
           ))}
-        </select>
+        </SelectField>
 
         <div className="mx-auto flex h-[640px] max-h-[78vh] w-full max-w-[380px] flex-col overflow-hidden rounded-[2.25rem] border-[10px] border-ink bg-paper-50 shadow-lg">
           <div className="flex items-center justify-between bg-ink px-4 pb-2 pt-1 text-[11px] font-semibold text-paper/80" aria-hidden="true">
@@ -203,11 +197,11 @@ export function PhoneClient({ owners, initialPhone, fromNumber }: { owners: Phon
               send(draft);
             }}
           >
-            <label htmlFor="phone-reply" className="sr-only">
-              Reply text
-            </label>
-            <input
+            <TextField
               id="phone-reply"
+              hideLabel
+              label="Reply text"
+              wrapperClassName="flex-1"
               name="reply"
               className="field rounded-full"
               placeholder="Text message"

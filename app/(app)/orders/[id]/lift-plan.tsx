@@ -1,10 +1,26 @@
 "use client";
 
-import { useRouter } from "next/navigation";
 import { useState } from "react";
+import { useForm } from "react-hook-form";
+import { FormAlert, SelectField, TextField } from "@/components/form/fields";
+import { useApiMutation } from "@/lib/api/mutations";
 import type { LiftPlan, RiggingChoice } from "@/lib/gear/lift";
 
-type Issue = { field: string; message: string };
+type Values = Record<
+  | "loadLabel"
+  | "loadLb"
+  | "partsOfLine"
+  | "sheaves"
+  | "blockRiggingId"
+  | "blockWllLb"
+  | "lineRiggingId"
+  | "lineWllLb"
+  | "slingRiggingId"
+  | "slingWllLb"
+  | "slingLegs"
+  | "slingAngleDeg",
+  string
+>;
 
 const num = (s: string) => (s.trim() === "" ? null : Number(s));
 
@@ -15,66 +31,50 @@ const num = (s: string) => (s.trim() === "" ? null : Number(s));
  * field and nothing is stored.
  */
 export function LiftPlanEditor({ orderId, plan, rigging, canEdit, lifting }: { orderId: number; plan: LiftPlan | null; rigging: RiggingChoice[]; canEdit: boolean; lifting: boolean }) {
-  const router = useRouter();
   const [open, setOpen] = useState(false);
-  const [busy, setBusy] = useState(false);
-  const [error, setError] = useState<string | null>(null);
-  const [issues, setIssues] = useState<Issue[]>([]);
   const s = (v: number | null | undefined) => (v === null || v === undefined ? "" : String(v));
-  const [f, setF] = useState({
-    loadLabel: plan?.loadLabel ?? "",
-    loadLb: s(plan?.loadLb),
-    partsOfLine: s(plan?.partsOfLine ?? 3),
-    sheaves: s(plan?.sheaves),
-    blockRiggingId: s(plan?.blockRiggingId),
-    blockWllLb: s(plan?.blockRiggingId ? null : plan?.blockWllLb),
-    lineRiggingId: s(plan?.lineRiggingId),
-    lineWllLb: s(plan?.lineRiggingId ? null : plan?.lineWllLb),
-    slingRiggingId: s(plan?.slingRiggingId),
-    slingWllLb: s(plan?.slingRiggingId ? null : plan?.slingWllLb),
-    slingLegs: s(plan?.slingLegs ?? 1),
-    slingAngleDeg: s(plan?.slingAngleDeg ?? 90),
+  const form = useForm<Values>({
+    defaultValues: {
+      loadLabel: plan?.loadLabel ?? "",
+      loadLb: s(plan?.loadLb),
+      partsOfLine: s(plan?.partsOfLine ?? 3),
+      sheaves: s(plan?.sheaves),
+      blockRiggingId: s(plan?.blockRiggingId),
+      blockWllLb: s(plan?.blockRiggingId ? null : plan?.blockWllLb),
+      lineRiggingId: s(plan?.lineRiggingId),
+      lineWllLb: s(plan?.lineRiggingId ? null : plan?.lineWllLb),
+      slingRiggingId: s(plan?.slingRiggingId),
+      slingWllLb: s(plan?.slingRiggingId ? null : plan?.slingWllLb),
+      slingLegs: s(plan?.slingLegs ?? 1),
+      slingAngleDeg: s(plan?.slingAngleDeg ?? 90),
+    },
   });
-  const set = (k: keyof typeof f) => (e: React.ChangeEvent<HTMLInputElement | HTMLSelectElement>) => setF({ ...f, [k]: e.target.value });
-  const msg = (field: string) => issues.find((i) => i.field === field)?.message;
+  const { register, watch } = form;
+  const errors = form.formState.errors;
+  const save = useApiMutation<Values>({
+    request: (f) => {
+      const body: Record<string, unknown> = {
+        ...(plan ? { version: plan.version } : {}),
+        loadLabel: f.loadLabel || null,
+        loadLb: num(f.loadLb),
+        partsOfLine: num(f.partsOfLine),
+        slingLegs: num(f.slingLegs),
+        slingAngleDeg: num(f.slingAngleDeg),
+        blockRiggingId: num(f.blockRiggingId),
+        lineRiggingId: num(f.lineRiggingId),
+        slingRiggingId: num(f.slingRiggingId),
+        blockWllLb: f.blockRiggingId ? null : num(f.blockWllLb),
+        lineWllLb: f.lineRiggingId ? null : num(f.lineWllLb),
+        slingWllLb: f.slingRiggingId ? null : num(f.slingWllLb),
+      };
+      if (f.sheaves.trim() !== "") body.sheaves = num(f.sheaves);
+      return { url: `/api/orders/${orderId}/lift`, method: "PUT", body };
+    },
+    form,
+    refresh: true,
+    onSuccess: () => setOpen(false),
+  });
   const of = (kind: RiggingChoice["kind"]) => rigging.filter((r) => r.kind === kind);
-
-  async function save(e: React.FormEvent) {
-    e.preventDefault();
-    setBusy(true);
-    setError(null);
-    setIssues([]);
-    const body: Record<string, unknown> = {
-      ...(plan ? { version: plan.version } : {}),
-      loadLabel: f.loadLabel || null,
-      loadLb: num(f.loadLb),
-      partsOfLine: num(f.partsOfLine),
-      slingLegs: num(f.slingLegs),
-      slingAngleDeg: num(f.slingAngleDeg),
-      blockRiggingId: num(f.blockRiggingId),
-      lineRiggingId: num(f.lineRiggingId),
-      slingRiggingId: num(f.slingRiggingId),
-      blockWllLb: f.blockRiggingId ? null : num(f.blockWllLb),
-      lineWllLb: f.lineRiggingId ? null : num(f.lineWllLb),
-      slingWllLb: f.slingRiggingId ? null : num(f.slingWllLb),
-    };
-    if (f.sheaves.trim() !== "") body.sheaves = num(f.sheaves);
-    try {
-      const res = await fetch(`/api/orders/${orderId}/lift`, { method: "PUT", headers: { "content-type": "application/json" }, body: JSON.stringify(body) });
-      const data = await res.json().catch(() => ({}));
-      if (!res.ok) {
-        setIssues(data.issues ?? []);
-        setError(data.error ?? "Not saved.");
-        return;
-      }
-      setOpen(false);
-      router.refresh();
-    } catch {
-      setError("The server did not answer; nothing was saved.");
-    } finally {
-      setBusy(false);
-    }
-  }
 
   if (!canEdit) return null;
   if (!open)
@@ -84,37 +84,29 @@ export function LiftPlanEditor({ orderId, plan, rigging, canEdit, lifting }: { o
       </button>
     );
 
-  const field = (k: keyof typeof f, label: string, extra: React.InputHTMLAttributes<HTMLInputElement> = {}) => (
-    <label className="text-sm">
-      <span className="label">{label}</span>
-      <input className="field" name={k} value={f[k]} onChange={set(k)} aria-invalid={msg(k) ? true : undefined} {...extra} />
-      {msg(k) && <span className="text-xs text-block">{msg(k)}</span>}
-    </label>
+  const field = (k: keyof Values, label: string, extra: React.InputHTMLAttributes<HTMLInputElement> = {}) => (
+    <TextField id={`lift-${k}`} label={label} error={errors[k]?.message} {...extra} {...register(k)} />
   );
   const pick = (idKey: "blockRiggingId" | "lineRiggingId" | "slingRiggingId", wllKey: "blockWllLb" | "lineWllLb" | "slingWllLb", kind: RiggingChoice["kind"], label: string) => (
     <div className="grid gap-1">
-      <label className="text-sm">
-        <span className="label">{label}</span>
-        <select className="field" name={idKey} value={f[idKey]} onChange={set(idKey)} aria-invalid={msg(idKey) ? true : undefined}>
-          <option value="">Not from the truck: type its WLL</option>
-          {of(kind).map((r) => (
-            <option key={r.id} value={r.id}>
-              {r.unitNumber} · {r.label} · WLL {r.wllLb.toLocaleString("en-US")} lb
-            </option>
-          ))}
-        </select>
-        {msg(idKey) && <span className="text-xs text-block">{msg(idKey)}</span>}
-      </label>
-      {!f[idKey] && field(wllKey, "WLL (lb)", { type: "number", min: 1, step: 1 })}
+      <SelectField id={`lift-${idKey}`} label={label} error={errors[idKey]?.message} {...register(idKey)}>
+        <option value="">Not from the truck: type its WLL</option>
+        {of(kind).map((r) => (
+          <option key={r.id} value={r.id}>
+            {r.unitNumber} · {r.label} · WLL {r.wllLb.toLocaleString("en-US")} lb
+          </option>
+        ))}
+      </SelectField>
+      {!watch(idKey) && field(wllKey, "WLL (lb)", { type: "number", min: 1, step: 1 })}
     </div>
   );
 
   return (
-    <form onSubmit={save} className="mt-3 grid gap-3 sm:grid-cols-3" aria-label="Lift plan" noValidate>
-      {error && (
-        <p role="alert" className="rounded-md bg-block-bg px-3 py-2 text-sm text-block sm:col-span-3">
-          ✖ {error}
-        </p>
+    <form onSubmit={form.handleSubmit(save.submit)} className="mt-3 grid gap-3 sm:grid-cols-3" aria-label="Lift plan" noValidate>
+      {save.errorText && (
+        <div className="sm:col-span-3">
+          <FormAlert tone="block">{save.errorText}</FormAlert>
+        </div>
       )}
       {rigging.length === 0 && (
         <p className="text-xs text-ink-500 sm:col-span-3">No truck with rigging is on this order yet: type each part&apos;s working load limit from its tag.</p>
@@ -129,8 +121,8 @@ export function LiftPlanEditor({ orderId, plan, rigging, canEdit, lifting }: { o
       {field("slingLegs", "Sling legs", { type: "number", min: 1, max: 4, step: 1 })}
       {field("slingAngleDeg", "Sling angle from the horizontal (°)", { type: "number", min: 1, max: 90, step: "any" })}
       <div className="flex gap-2 sm:col-span-3">
-        <button className="btn-primary" type="submit" disabled={busy}>
-          {busy ? "Saving…" : "Save the lift plan"}
+        <button className="btn-primary" type="submit" disabled={save.isPending}>
+          {save.isPending ? "Saving…" : "Save the lift plan"}
         </button>
         <button className="btn-quiet" type="button" onClick={() => setOpen(false)}>
           Cancel
