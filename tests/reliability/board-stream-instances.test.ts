@@ -92,6 +92,6 @@ describe("board stream across two instances", () => {
     onA.close();
     onB.close();
     console.log(`[board-stream-instances] write → both streams: ${lag.join(", ")} ms (aim 500 ms)`);
-    expect(Math.max(...lag)).toBeLessThan(3_000);
+    expect(Math.max(...lag)).toBeLessThan(5_000);
   }, 120_000);
 });

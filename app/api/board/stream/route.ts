@@ -62,11 +62,20 @@ export const GET = handler(async (req) => {
       const sent = new Set<number>();
       let live = false;
       const buffered: HubEvent[] = [];
+      // A write to a stream the client has gone from throws: that ends this stream's listener.
+      const write = (bytes: Uint8Array) => {
+        if (closed) return;
+        try {
+          controller.enqueue(bytes);
+        } catch {
+          close();
+        }
+      };
       const send = (e: HubEvent) => {
         if (closed || sent.has(e.id)) return;
         sent.add(e.id);
         if (sent.size > 5000) for (const id of [...sent].slice(0, 2500)) sent.delete(id);
-        controller.enqueue(frame(e));
+        write(frame(e));
       };
       const sub = subscribe(db(), (e) => {
         if (!mine(e)) return;
@@ -76,7 +85,7 @@ export const GET = handler(async (req) => {
       const timers: ReturnType<typeof setInterval>[] = [];
       const close = (reason?: string) => {
         if (closed) return;
-        if (reason) controller.enqueue(encoder.encode(`event: end\ndata: ${JSON.stringify({ reason })}\n\n`));
+        if (reason) write(encoder.encode(`event: end\ndata: ${JSON.stringify({ reason })}\n\n`));
         closed = true;
         sub.unsubscribe();
         for (const t of timers) clearInterval(t);
@@ -89,7 +98,7 @@ export const GET = handler(async (req) => {
       cleanup = () => close();
       req.signal.addEventListener("abort", () => close());
       try {
-        controller.enqueue(encoder.encode(`retry: 1000\n: open\n\n`));
+        write(encoder.encode(`retry: 1000\n: open\n\n`));
         await sub.ready;
         // What the browser missed: every event after its last id, from the table (in id order);
         // then what the follower hands out (each id once: `sent`).
@@ -108,7 +117,7 @@ export const GET = handler(async (req) => {
         console.error("[board stream] could not start", err);
         return close("error");
       }
-      timers.push(setInterval(() => !closed && controller.enqueue(encoder.encode(`: ping\n\n`)), PING_MS));
+      timers.push(setInterval(() => write(encoder.encode(`: ping\n\n`)), PING_MS));
       timers.push(
         setInterval(async () => {
           try {
