@@ -3,8 +3,9 @@
 // the call-out list goes lowest hours first). Worked time is split at local midnights, so a
 // call-out from 23:00 to 02:00 counts one hour on the first day and two on the next.
 
-import { addDays, epochToZonedDate, zonedWallTimeToEpoch } from "@/lib/rules/time";
+import { epochToZonedDate, zonedWallTimeToEpoch } from "@/lib/rules/time";
 import type { Interval } from "@/lib/rules/types";
+import { addDays } from "@/lib/time/days";
 
 export const OVERTIME_WINDOW_DAYS = 28;
 const HOUR = 3_600_000;

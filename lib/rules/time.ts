@@ -193,9 +193,3 @@ export function daysBetween(a: string, b: string): number {
   const ub = Date.UTC(Number(b.slice(0, 4)), Number(b.slice(5, 7)) - 1, Number(b.slice(8, 10)));
   return Math.round((ub - ua) / DAY_MS);
 }
-
-/** The calendar date n days after a "YYYY-MM-DD" date (n may be negative); calendar arithmetic, no zone. */
-export function addDays(date: string, n: number): string {
-  const d = new Date(Date.UTC(Number(date.slice(0, 4)), Number(date.slice(5, 7)) - 1, Number(date.slice(8, 10)) + n));
-  return d.toISOString().slice(0, 10);
-}
