@@ -1,4 +1,5 @@
 import { requirePageRole } from "@/lib/auth/session";
+import { SelectField, TextField } from "@/components/form/fields";
 import { db } from "@/lib/db";
 import { listAudit } from "@/lib/audit/data";
 import { PageHeader } from "@/components/status";
@@ -68,50 +69,25 @@ export default async function AuditPage({
     <>
       <PageHeader eyebrow="Audit" title="Who did what" />
       <form className="mb-4 grid gap-3 sm:flex sm:flex-wrap sm:items-end" method="get" aria-label="Filter the audit log">
-        <div>
-          <label className="label" htmlFor="from">
-            From
-          </label>
-          <input id="from" name="from" type="date" defaultValue={fromDay ?? ""} className="field" />
-        </div>
-        <div>
-          <label className="label" htmlFor="to">
-            To
-          </label>
-          <input id="to" name="to" type="date" defaultValue={toDay ?? ""} className="field" />
-        </div>
-        <div>
-          <label className="label" htmlFor="actor">
-            Person
-          </label>
-          <select id="actor" name="actor" defaultValue={actor ? String(actor) : ""} className="field">
-            <option value="">Everyone</option>
-            {people.map((p: { id: number; name: string }) => (
-              <option key={p.id} value={p.id}>
-                {p.name}
-              </option>
-            ))}
-          </select>
-        </div>
-        <div>
-          <label className="label" htmlFor="order">
-            Order
-          </label>
-          <input id="order" name="order" placeholder="WO-26-0101" defaultValue={order ?? ""} className="field" />
-        </div>
-        <div>
-          <label className="label" htmlFor="action">
-            Action
-          </label>
-          <select id="action" name="action" defaultValue={action ?? ""} className="field">
-            <option value="">All actions</option>
-            {actions.map((a: { action: string }) => (
-              <option key={a.action} value={a.action}>
-                {actionLabel(a.action)}
-              </option>
-            ))}
-          </select>
-        </div>
+        <TextField id="from" name="from" type="date" label="From" defaultValue={fromDay ?? ""} />
+        <TextField id="to" name="to" type="date" label="To" defaultValue={toDay ?? ""} />
+        <SelectField id="actor" name="actor" label="Person" defaultValue={actor ? String(actor) : ""}>
+          <option value="">Everyone</option>
+          {people.map((p: { id: number; name: string }) => (
+            <option key={p.id} value={p.id}>
+              {p.name}
+            </option>
+          ))}
+        </SelectField>
+        <TextField id="order" name="order" label="Order" placeholder="WO-26-0101" defaultValue={order ?? ""} />
+        <SelectField id="action" name="action" label="Action" defaultValue={action ?? ""}>
+          <option value="">All actions</option>
+          {actions.map((a: { action: string }) => (
+            <option key={a.action} value={a.action}>
+              {actionLabel(a.action)}
+            </option>
+          ))}
+        </SelectField>
         {entity && <input type="hidden" name="entity" value={entity} />}
         <button className="btn-quiet" type="submit">
           Filter

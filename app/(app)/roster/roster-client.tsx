@@ -2,6 +2,7 @@
 
 import Link from "next/link";
 import { useMemo, useState } from "react";
+import { FormAlert, SelectField, TextField } from "@/components/form/fields";
 import { Badge } from "@/components/status";
 import { CLASSIFICATION_LABEL } from "@/lib/format";
 import type { WorkerRow } from "@/lib/workers/model";
@@ -45,38 +46,38 @@ export function RosterClient({ workers, yards, canEdit, canSeeCredentials, editI
     setDone(msg);
   };
 
+  const editButton = (w: WorkerRow) => (
+    <button
+      type="button"
+      className="btn-quiet px-2 py-1"
+      onClick={() => {
+        setDone(null);
+        setEditing(w.id);
+        window.scrollTo({ top: 0, behavior: "smooth" });
+      }}
+      aria-label={`Edit ${w.name}`}
+    >
+      Edit
+    </button>
+  );
+
   return (
     <section aria-label="Workers">
       <div className="card mb-3 grid gap-3 p-3 sm:grid-cols-2 lg:grid-cols-[2fr_1fr_1fr_auto] lg:items-end">
-        <div>
-          <label className="label" htmlFor="roster-q">
-            Search
-          </label>
-          <input id="roster-q" type="search" className="field" placeholder="Name, employee number, phone, e-mail" value={q} onChange={(e) => setQ(e.target.value)} />
-        </div>
-        <div>
-          <label className="label" htmlFor="roster-yard">
-            Yard
-          </label>
-          <select id="roster-yard" className="field" value={yard} onChange={(e) => setYard(e.target.value)}>
-            <option value="">All yards</option>
-            {yards.map((y) => (
-              <option key={y.id} value={y.code}>
-                {y.name} ({y.code})
-              </option>
-            ))}
-          </select>
-        </div>
-        <div>
-          <label className="label" htmlFor="roster-state">
-            Show
-          </label>
-          <select id="roster-state" className="field" value={state} onChange={(e) => setState(e.target.value as typeof state)}>
-            <option value="active">Active workers</option>
-            <option value="inactive">Inactive workers</option>
-            <option value="all">Everyone</option>
-          </select>
-        </div>
+        <TextField id="roster-q" type="search" label="Search" placeholder="Name, employee number, phone, e-mail" value={q} onChange={(e) => setQ(e.target.value)} />
+        <SelectField id="roster-yard" label="Yard" value={yard} onChange={(e) => setYard(e.target.value)}>
+          <option value="">All yards</option>
+          {yards.map((y) => (
+            <option key={y.id} value={y.code}>
+              {y.name} ({y.code})
+            </option>
+          ))}
+        </SelectField>
+        <SelectField id="roster-state" label="Show" value={state} onChange={(e) => setState(e.target.value as typeof state)}>
+          <option value="active">Active workers</option>
+          <option value="inactive">Inactive workers</option>
+          <option value="all">Everyone</option>
+        </SelectField>
         {canEdit && (
           <button
             type="button"
@@ -92,9 +93,9 @@ export function RosterClient({ workers, yards, canEdit, canSeeCredentials, editI
       </div>
 
       {done && (
-        <p role="status" className="mb-3 rounded-md bg-clear-bg px-3 py-2 text-sm font-semibold text-clear">
-          ✓ {done}
-        </p>
+        <div className="mb-3">
+          <FormAlert tone="clear">{done}</FormAlert>
+        </div>
       )}
       {canEdit && editing === "new" && (
         <div className="mb-4">
@@ -147,20 +148,7 @@ export function RosterClient({ workers, yards, canEdit, canSeeCredentials, editI
                         Credentials
                       </Link>
                     )}
-                    {canEdit && (
-                      <button
-                        type="button"
-                        className="btn-quiet px-2 py-1"
-                        onClick={() => {
-                          setDone(null);
-                          setEditing(w.id);
-                          window.scrollTo({ top: 0, behavior: "smooth" });
-                        }}
-                        aria-label={`Edit ${w.name}`}
-                      >
-                        Edit
-                      </button>
-                    )}
+                    {canEdit && editButton(w)}
                   </td>
                 )}
               </tr>
@@ -188,20 +176,7 @@ export function RosterClient({ workers, yards, canEdit, canSeeCredentials, editI
                   Credentials
                 </Link>
               )}
-              {canEdit && (
-                <button
-                  type="button"
-                  className="btn-quiet px-2 py-1"
-                  onClick={() => {
-                    setDone(null);
-                    setEditing(w.id);
-                    window.scrollTo({ top: 0, behavior: "smooth" });
-                  }}
-                  aria-label={`Edit ${w.name}`}
-                >
-                  Edit
-                </button>
-              )}
+              {canEdit && editButton(w)}
             </div>
           </li>
         ))}

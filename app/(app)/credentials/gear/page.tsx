@@ -1,4 +1,5 @@
 import Link from "next/link";
+import { SelectField, TextField } from "@/components/form/fields";
 import { requirePageRole } from "@/lib/auth/session";
 import { CAN_KEEP_CREDENTIALS } from "@/lib/users/roles";
 import { db } from "@/lib/db";
@@ -52,21 +53,15 @@ export default async function GearPage({ searchParams }: { searchParams: Promise
       </nav>
       <form className="mb-4 flex flex-wrap items-end gap-2" action="/credentials/gear">
         <input type="hidden" name="view" value={view} />
-        <label className="text-sm">
-          <span className="label">Yard</span>
-          <select name="yard" defaultValue={yard ?? ""} className="field">
-            <option value="">All yards</option>
-            {yards.map((y) => (
-              <option key={y.code} value={y.code}>
-                {y.name}
-              </option>
-            ))}
-          </select>
-        </label>
-        <label className="text-sm">
-          <span className="label">Worker, number or serial</span>
-          <input name="q" defaultValue={q ?? ""} className="field" />
-        </label>
+        <SelectField id="gear-f-yard" name="yard" label="Yard" defaultValue={yard ?? ""}>
+          <option value="">All yards</option>
+          {yards.map((y) => (
+            <option key={y.code} value={y.code}>
+              {y.name}
+            </option>
+          ))}
+        </SelectField>
+        <TextField id="gear-f-q" name="q" label="Worker, number or serial" defaultValue={q ?? ""} />
         <button className="btn-quiet" type="submit">
           Filter
         </button>
