@@ -3,7 +3,7 @@
 import { zodResolver } from "@hookform/resolvers/zod";
 import { useEffect, useId, useRef, useState } from "react";
 import { useForm } from "react-hook-form";
-import { FormAlert, SelectField, TextField } from "@/components/form/fields";
+import { FormActions, FormAlert, SelectField, TextField } from "@/components/form/fields";
 import { useApiMutation } from "@/lib/api/mutations";
 import {
   credentialCreateSchema,
@@ -196,15 +196,9 @@ export function CredentialForm({ workerId, type, choices = [], today, mode, onDo
           <FormAlert tone="block">{save.errorText}</FormAlert>
         </div>
       )}
-      <div className="flex flex-wrap gap-2 sm:col-span-2 lg:col-span-4">
-        <button type="submit" className="btn-primary" disabled={busy}>
-          {busy ? "Saving…" : mode === "own" ? "Send to HR" : type ? "Save renewal" : "Save qualification"}
-        </button>
-        <button type="button" className="btn-quiet" onClick={onCancel}>
-          Cancel
-        </button>
+      <FormActions className="flex flex-wrap gap-2 sm:col-span-2 lg:col-span-4" label={mode === "own" ? "Send to HR" : type ? "Save renewal" : "Save qualification"} busy={busy} onCancel={onCancel}>
         {mode === "hr" && <span className="self-center text-xs text-ink-500">Saved as verified by you, now. The old record stays in the history.</span>}
-      </div>
+      </FormActions>
     </form>
   );
 }

@@ -4,6 +4,7 @@ import { zodResolver } from "@hookform/resolvers/zod";
 import { useForm } from "react-hook-form";
 import { useState } from "react";
 import { ChoiceGroup, FormAlert, SelectField, TextField } from "@/components/form/fields";
+import { WorkerOptions } from "@/components/worker-options";
 import { useApiMutation } from "@/lib/api/mutations";
 import { unavailabilitySchema, type UnavailabilityFormValues } from "@/lib/leave/model";
 
@@ -66,12 +67,7 @@ export function LeaveForm({ workers = [], workerId, asks, defaults = { start: ""
     >
       {workerId === undefined && workers.length > 1 ? (
         <SelectField id="lv-worker" label="Worker" error={errors.workerId?.message} {...register("workerId", { setValueAs: Number })}>
-          <option value={0}>Pick the worker…</option>
-          {workers.map((w) => (
-            <option key={w.id} value={w.id}>
-              {w.name} ({w.employeeNo}, {w.yardCode})
-            </option>
-          ))}
+          <WorkerOptions workers={workers} />
         </SelectField>
       ) : (
         <input type="hidden" {...register("workerId", { setValueAs: Number })} />

@@ -183,3 +183,34 @@ export function ChoiceGroup({
     </fieldset>
   );
 }
+
+/** A form's submit button (with its busy wording) and an optional Cancel. */
+export function FormActions({
+  label,
+  busy,
+  busyLabel = "Saving…",
+  onCancel,
+  className = "flex gap-2",
+  children,
+}: {
+  label: ReactNode;
+  busy?: boolean;
+  busyLabel?: ReactNode;
+  onCancel?: () => void;
+  className?: string;
+  children?: ReactNode;
+}) {
+  return (
+    <div className={className}>
+      <button type="submit" className="btn-primary" disabled={busy}>
+        {busy ? busyLabel : label}
+      </button>
+      {onCancel && (
+        <button type="button" className="btn-quiet" onClick={onCancel}>
+          Cancel
+        </button>
+      )}
+      {children}
+    </div>
+  );
+}

@@ -1,7 +1,7 @@
 "use client";
 
 import { useForm } from "react-hook-form";
-import { CheckField, FormAlert, SelectField, TextField } from "@/components/form/fields";
+import { CheckField, FormActions, FormAlert, SelectField, TextField } from "@/components/form/fields";
 import { useApiMutation } from "@/lib/api/mutations";
 import { EQUIPMENT_KINDS, EQUIPMENT_KIND_LABEL, type Equipment, type EquipmentKind } from "@/lib/equipment/model";
 
@@ -98,14 +98,7 @@ export function EquipmentForm({ equipment: e, yards, homeYardCode, onClose }: { 
           {...register("outOfServiceReason")}
         />
       )}
-      <div className="flex gap-2 sm:col-span-2 lg:col-span-4">
-        <button type="submit" className="btn-primary" disabled={save.isPending}>
-          {save.isPending ? "Saving…" : "Save"}
-        </button>
-        <button type="button" className="btn-quiet" onClick={onClose}>
-          Cancel
-        </button>
-      </div>
+      <FormActions className="flex gap-2 sm:col-span-2 lg:col-span-4" label="Save" busy={save.isPending} onCancel={onClose} />
       {save.errorText && (
         <div className="sm:col-span-2 lg:col-span-4">
           <FormAlert>{save.errorText}</FormAlert>

@@ -3,7 +3,7 @@
 import { zodResolver } from "@hookform/resolvers/zod";
 import { useState } from "react";
 import { useForm } from "react-hook-form";
-import { CheckField, FormAlert, SelectField, TextField } from "@/components/form/fields";
+import { CheckField, FormActions, FormAlert, SelectField, TextField } from "@/components/form/fields";
 import { useApiMutation } from "@/lib/api/mutations";
 import { CLASSIFICATION_LABEL } from "@/lib/format";
 import type { WorkerRow } from "@/lib/workers/model";
@@ -126,14 +126,7 @@ export function WorkerForm({ worker, yards, onDone, onCancel }: Props) {
           </FormAlert>
         </div>
       )}
-      <div className="flex gap-2 sm:col-span-2 lg:col-span-4">
-        <button type="submit" className="btn-primary" disabled={save.isPending}>
-          {save.isPending ? "Saving…" : worker ? "Save changes" : "Add worker"}
-        </button>
-        <button type="button" className="btn-quiet" onClick={onCancel}>
-          Cancel
-        </button>
-      </div>
+      <FormActions className="flex gap-2 sm:col-span-2 lg:col-span-4" label={worker ? "Save changes" : "Add worker"} busy={save.isPending} onCancel={onCancel} />
     </form>
   );
 }

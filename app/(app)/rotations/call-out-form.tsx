@@ -5,6 +5,7 @@ import Link from "next/link";
 import { useState } from "react";
 import { useForm } from "react-hook-form";
 import { FormAlert, SelectField, TextField } from "@/components/form/fields";
+import { WorkerOptions } from "@/components/worker-options";
 import { useApiMutation } from "@/lib/api/mutations";
 import { callOutSchema, type CallOutFormValues } from "@/lib/rotations/model";
 import type { WorkerOption } from "./rotation-form";
@@ -71,12 +72,7 @@ export function CallOutForm({ workers, rotations, defaults }: Props) {
           ))}
         </SelectField>
         <SelectField id="co-worker" label="Worker called out" error={errors.workerId?.message} {...register("workerId", { setValueAs: Number })}>
-          <option value={0}>Pick the worker…</option>
-          {workers.map((w) => (
-            <option key={w.id} value={w.id}>
-              {w.name} ({w.employeeNo}, {w.yardCode})
-            </option>
-          ))}
+          <WorkerOptions workers={workers} />
         </SelectField>
         <TextField id="co-start" type="datetime-local" label="Started" error={errors.start?.message} {...register("start")} />
         <TextField id="co-end" type="datetime-local" label="Ended" error={errors.end?.message} {...register("end")} />

@@ -1,4 +1,6 @@
 import Link from "next/link";
+import { SelectField, TextField } from "@/components/form/fields";
+import { WorkerOptions } from "@/components/worker-options";
 import { requirePageRole } from "@/lib/auth/session";
 import { db } from "@/lib/db";
 import { Badge, PageHeader } from "@/components/status";
@@ -56,25 +58,10 @@ export default async function TimePage({ searchParams }: { searchParams: Promise
 
       {!own && (
         <form method="get" action="/time" className="card mb-4 flex flex-wrap items-end gap-3 p-3" aria-label="Pick worker and week">
-          <div className="min-w-64 flex-1">
-            <label className="label" htmlFor="t-worker">
-              Worker
-            </label>
-            <select id="t-worker" name="worker" defaultValue={workerId ?? ""} className="field">
-              <option value="">Pick a worker…</option>
-              {workers.map((w) => (
-                <option key={w.id} value={w.id}>
-                  {w.name} ({w.employeeNo}, {w.yardCode})
-                </option>
-              ))}
-            </select>
-          </div>
-          <div>
-            <label className="label" htmlFor="t-week">
-              Week of
-            </label>
-            <input id="t-week" type="date" name="week" defaultValue={week?.week ?? sp.week ?? ""} className="field" />
-          </div>
+          <SelectField id="t-worker" name="worker" label="Worker" wrapperClassName="min-w-64 flex-1" defaultValue={workerId ?? ""}>
+            <WorkerOptions workers={workers} placeholder="Pick a worker…" emptyValue="" />
+          </SelectField>
+          <TextField id="t-week" type="date" name="week" label="Week of" defaultValue={week?.week ?? sp.week ?? ""} />
           <button type="submit" className="btn-primary">
             Show
           </button>
@@ -113,7 +100,7 @@ export default async function TimePage({ searchParams }: { searchParams: Promise
                     <tr key={d.date} className="border-t border-rule align-top" data-testid="time-day" data-date={d.date}>
                       <td className="whitespace-nowrap px-3 py-2 font-semibold">{fmtDate(d.date)}</td>
                       <td className="px-3 py-2">
-                        {d.records.length === 0 && <span className="text-ink-300">—</span>}
+                        {d.records.length === 0 && <span className="text-ink-500">—</span>}
                         <ul className="space-y-1.5">
                           {d.records.map((r) => (
                             <li key={r.id} className="flex flex-wrap items-center gap-2" data-testid="time-record">

@@ -1,7 +1,7 @@
 "use client";
 
 import { useState } from "react";
-import { FormAlert } from "@/components/form/fields";
+import { FormAlert, SelectField } from "@/components/form/fields";
 import { placeFailure, type IssueTarget } from "@/lib/api/client";
 import { useApiMutation } from "@/lib/api/mutations";
 import { ROLES, ROLE_LABEL, type Role } from "@/lib/users/roles";
@@ -67,11 +67,10 @@ export function UsersClient({ me, users, yards, workers }: { me: number; users: 
                   <div className="text-xs text-ink-500">{u.email}</div>
                 </td>
                 <td className="py-2 pr-3">
-                  <label className="sr-only" htmlFor={`role-${u.id}`}>
-                    Role of {u.name}
-                  </label>
-                  <select
+                  <SelectField
                     id={`role-${u.id}`}
+                    hideLabel
+                    label={`Role of ${u.name}`}
                     className="field py-1"
                     defaultValue={u.role}
                     disabled={busy || u.id === me}
@@ -86,7 +85,7 @@ export function UsersClient({ me, users, yards, workers }: { me: number; users: 
                         {ROLE_LABEL[r]}
                       </option>
                     ))}
-                  </select>
+                  </SelectField>
                 </td>
                 <td className="py-2 pr-3 text-xs">
                   {u.role === "dispatcher" ? (

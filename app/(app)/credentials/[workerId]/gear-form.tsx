@@ -1,7 +1,7 @@
 "use client";
 
 import { useForm } from "react-hook-form";
-import { FormAlert, SelectField, TextField } from "@/components/form/fields";
+import { FormActions, FormAlert, SelectField, TextField } from "@/components/form/fields";
 import { useApiMutation } from "@/lib/api/mutations";
 import { GEAR_CLASSES, GEAR_KIND_LABEL, GEAR_KINDS, classLabel } from "@/lib/gear/model";
 
@@ -43,14 +43,7 @@ export function GearForm({ workerId, today, onDone, onCancel }: { workerId: numb
       <TextField label="Serial or label" required error={e.serial?.message} {...register("serial")} />
       <TextField type="date" max={today} label="Last electrical test" error={e.testedOn?.message} {...register("testedOn")} />
       <TextField type="date" label="Issued" error={e.issuedOn?.message} {...register("issuedOn")} />
-      <div className="flex gap-2 sm:col-span-3">
-        <button type="submit" className="btn-primary" disabled={save.isPending}>
-          {save.isPending ? "Saving…" : "Save"}
-        </button>
-        <button type="button" className="btn-quiet" onClick={onCancel}>
-          Cancel
-        </button>
-      </div>
+      <FormActions className="flex gap-2 sm:col-span-3" label="Save" busy={save.isPending} onCancel={onCancel} />
     </form>
   );
 }

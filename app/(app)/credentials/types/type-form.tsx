@@ -2,7 +2,7 @@
 
 import { zodResolver } from "@hookform/resolvers/zod";
 import { useForm } from "react-hook-form";
-import { CheckField, FormAlert, TextField } from "@/components/form/fields";
+import { CheckField, FormActions, FormAlert, TextField } from "@/components/form/fields";
 import { useApiMutation } from "@/lib/api/mutations";
 import type { QualificationType } from "@/lib/credentials/model";
 import { qualificationTypeCreateSchema, type QualificationTypeCreate, type QualificationTypeCreateInput } from "@/lib/credentials/qualification-types";
@@ -32,14 +32,7 @@ export function TypeForm({ t, onClose }: { t?: QualificationType; onClose: (msg?
   });
   const span = t ? "sm:col-span-2 lg:col-span-5" : "sm:col-span-2 lg:col-span-6";
   const buttons = (
-    <div className={t ? "flex gap-2 self-end" : `flex gap-2 ${span}`}>
-      <button type="submit" className="btn-primary" disabled={save.isPending}>
-        {t ? "Save" : "Add"}
-      </button>
-      <button type="button" className="btn-quiet" onClick={() => onClose()}>
-        Cancel
-      </button>
-    </div>
+    <FormActions className={t ? "flex gap-2 self-end" : `flex gap-2 ${span}`} label={t ? "Save" : "Add"} busy={save.isPending} onCancel={() => onClose()} />
   );
   return (
     <form

@@ -2,7 +2,7 @@
 
 import { useState } from "react";
 import { useForm } from "react-hook-form";
-import { FormAlert, SelectField, TextField } from "@/components/form/fields";
+import { FormActions, FormAlert, SelectField, TextField } from "@/components/form/fields";
 import { useApiMutation } from "@/lib/api/mutations";
 import type { LiftPlan, RiggingChoice } from "@/lib/gear/lift";
 
@@ -120,14 +120,7 @@ export function LiftPlanEditor({ orderId, plan, rigging, canEdit, lifting }: { o
       {pick("slingRiggingId", "slingWllLb", "sling", "Sling")}
       {field("slingLegs", "Sling legs", { type: "number", min: 1, max: 4, step: 1 })}
       {field("slingAngleDeg", "Sling angle from the horizontal (°)", { type: "number", min: 1, max: 90, step: "any" })}
-      <div className="flex gap-2 sm:col-span-3">
-        <button className="btn-primary" type="submit" disabled={save.isPending}>
-          {save.isPending ? "Saving…" : "Save the lift plan"}
-        </button>
-        <button className="btn-quiet" type="button" onClick={() => setOpen(false)}>
-          Cancel
-        </button>
-      </div>
+      <FormActions className="flex gap-2 sm:col-span-3" label="Save the lift plan" busy={save.isPending} onCancel={() => setOpen(false)} />
     </form>
   );
 }
