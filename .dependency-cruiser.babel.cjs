@@ -7,8 +7,12 @@
 // Every import is kept, with one exception: a type-only import from a package (`import type
 // { Knex } from "knex"`) is dropped, since it never reaches a bundle; a type-only import of a
 // project file is kept, because a client file that takes a type from a data module is exactly
-// what the "no-data-module-in-client-code" rule is for (view types belong in model.ts).
+// what the "no-data-module-in-client-code" rule is for (view types belong in model.ts). The
+// reachability rule runs on a second pass that drops every type-only import (see below).
 const isLocal = (s) => s.startsWith(".") || s.startsWith("@/");
+// DEPCRUISE_RUNTIME_ONLY=1 (the second pass of scripts/check-imports.mjs, for the "reachable"
+// rule): every type-only import is dropped, so a chain of imports is one a bundle really loads.
+const RUNTIME_ONLY = process.env.DEPCRUISE_RUNTIME_ONLY === "1";
 
 function importsOnly({ types: t }) {
   return {
@@ -24,7 +28,7 @@ function importsOnly({ types: t }) {
           const specs = [];
           const add = (src, typeOnly) => {
             if (typeof src !== "string") return;
-            if (typeOnly && !isLocal(src)) return;
+            if (typeOnly && (RUNTIME_ONLY || !isLocal(src))) return;
             specs.push(src);
           };
           path.traverse({

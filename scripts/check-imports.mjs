@@ -30,27 +30,44 @@ const listed = execFileSync(
 const files = [...new Set(listed)].sort();
 
 const bin = path.join(ROOT, "node_modules", "dependency-cruiser", "bin", "dependency-cruise.mjs");
-const run = spawnSync(process.execPath, [bin, "--config", ".dependency-cruiser.cjs", "--output-type", "json", ...files], {
-  cwd: ROOT,
-  encoding: "utf8",
-  maxBuffer: 256 << 20,
-});
-let report;
-try {
-  report = JSON.parse(run.stdout);
-} catch {
-  console.error(run.stderr || run.stdout || "dependency-cruiser gave no report");
-  if (jsonOut) writeFileSync(jsonOut, JSON.stringify({ rules: [], error: (run.stderr || "no report").slice(0, 2000) }));
+const CONFIG = path.join(ROOT, ".dependency-cruiser.cjs");
+
+/** One dependency-cruiser run; runtimeOnly drops type-only imports (the reachability pass). */
+function cruise(runtimeOnly) {
+  const env = { ...process.env, DEPCRUISE_RUNTIME_ONLY: runtimeOnly ? "1" : "0" };
+  delete require.cache[CONFIG];
+  process.env.DEPCRUISE_RUNTIME_ONLY = env.DEPCRUISE_RUNTIME_ONLY;
+  const rules = require(CONFIG).forbidden;
+  const run = spawnSync(process.execPath, [bin, "--config", ".dependency-cruiser.cjs", "--output-type", "json", ...files], {
+    cwd: ROOT,
+    env,
+    encoding: "utf8",
+    maxBuffer: 256 << 20,
+  });
+  try {
+    return { rules, report: JSON.parse(run.stdout) };
+  } catch {
+    return { rules, error: (run.stderr || run.stdout || "dependency-cruiser gave no report").slice(0, 4000) };
+  }
+}
+
+const passes = [cruise(false), cruise(true)];
+const failedRun = passes.find((p) => p.error);
+if (failedRun) {
+  console.error(failedRun.error);
+  if (jsonOut) writeFileSync(jsonOut, JSON.stringify({ rules: [], error: failedRun.error.slice(0, 2000) }));
   process.exit(1);
 }
 
-const config = require(path.join(ROOT, ".dependency-cruiser.cjs"));
-const violations = report.summary.violations.filter((v) => v.rule.severity === "error");
-const byRule = new Map(config.forbidden.map((r) => [r.name, []]));
-for (const v of violations) {
-  if (!byRule.has(v.rule.name)) byRule.set(v.rule.name, []);
-  byRule.get(v.rule.name).push(v);
+const rules = passes.flatMap((p) => p.rules);
+const byRule = new Map(rules.map((r) => [r.name, []]));
+for (const { report } of passes) {
+  for (const v of report.summary.violations.filter((x) => x.rule.severity === "error")) {
+    if (!byRule.has(v.rule.name)) byRule.set(v.rule.name, []);
+    byRule.get(v.rule.name).push(v);
+  }
 }
+const report = passes[0].report;
 
 const describe = (v) => {
   if (v.cycle?.length) return `${v.from} → ${v.cycle.map((c) => c.name ?? c).join(" → ")}`;
@@ -60,7 +77,7 @@ const describe = (v) => {
 
 for (const [rule, list] of byRule) {
   if (!list.length) continue;
-  const r = config.forbidden.find((x) => x.name === rule);
+  const r = rules.find((x) => x.name === rule);
   console.log(`✗ ${rule} (${list.length})${r?.comment ? `\n    ${r.comment}` : ""}`);
   for (const v of list.slice(0, 40)) console.log(`    ${describe(v)}`);
   if (list.length > 40) console.log(`    … and ${list.length - 40} more`);

@@ -8,6 +8,21 @@ let failed = 0;
 let skipped = 0;
 const lines = [];
 
+// The import check (scripts/check-imports.mjs): one check per dependency-cruiser rule.
+const importsFile = join(dir, "imports.json");
+if (existsSync(importsFile)) {
+  const r = JSON.parse(readFileSync(importsFile, "utf8"));
+  const rules = r.rules ?? [];
+  const ok = rules.filter((x) => x.passed).length;
+  const bad = rules.length - ok + (rules.length === 0 ? 1 : 0);
+  passed += ok;
+  failed += bad;
+  lines.push(`import check: ${ok} passed, ${bad} failed${bad ? ` (${rules.filter((x) => !x.passed).map((x) => x.name).join(", ") || r.error || "no rules ran"})` : ""}`);
+} else {
+  failed += 1;
+  lines.push("import check: no report (the check did not run)");
+}
+
 const vitestFile = join(dir, "vitest.json");
 if (existsSync(vitestFile)) {
   const v = JSON.parse(readFileSync(vitestFile, "utf8"));
