@@ -21,19 +21,21 @@ export type CrewChange =
   | { kind: "declined"; worker: string };
 
 const seat = (p: string) => (POSITION_LABEL[p] ?? p).toLowerCase();
+/** "as ground", "as lead", but "in the bucket" for the aerial seat. */
+const asSeat = (p: string) => (p === "aerial" ? "in the bucket" : `as ${seat(p)}`);
 
 /** "Dana Ruiz placed Luis Carrasco as ground" / "Luis Carrasco declined by text". */
 export function changeWords(c: CrewChange, by: string | null): string {
   const who = by ?? "Someone";
   switch (c.kind) {
     case "placed":
-      return `${who} placed ${c.worker} as ${seat(c.position)}`;
+      return `${who} placed ${c.worker} ${asSeat(c.position)}`;
     case "removed":
       return `${who} took ${c.worker} off the crew`;
     case "moved":
       return c.fromOrder === c.toOrder
-        ? `${who} moved ${c.worker} to ${seat(c.position)}`
-        : `${who} moved ${c.worker} from ${c.fromOrder} to ${seat(c.position)} on ${c.toOrder}`;
+        ? `${who} moved ${c.worker} ${c.position === "aerial" ? "into the bucket" : `to ${seat(c.position)}`}`
+        : `${who} moved ${c.worker} from ${c.fromOrder} to ${c.toOrder}, ${asSeat(c.position)}`;
     case "swapped":
       return `${who} swapped ${c.a} and ${c.b}`;
     case "declined":
