@@ -80,7 +80,7 @@ export async function fill(problem: FillProblem, settingsIn: Partial<FillSetting
   let t = performance.now();
   const full = run.live.length ? buildModel(run, run.live, { pairs: true }) : null;
   run.timings.modelMs += performance.now() - t;
-  run.deadline = performance.now() + run.s.timeLimitSeconds * 1000;
+  run.deadline = solverDeadline(run);
 
   const solved = full ? await solve(run, full) : nothingToSolve(run);
   const { proposals, staffedOut, staffing, cost, placedOn } = answer(run, solved, full);
@@ -150,6 +150,17 @@ export function runEligibility(run: FillRun) {
   run.live = run.ctxs.filter((c) => !c.impossible);
   run.cliques = maximalCliques(run.live);
   run.restPairs = restPairsOf(run.live, run.ix.policy);
+}
+
+/**
+ * The time limit is the whole fill's (issue 19): the solver stops early enough to leave the
+ * explanations their share (15 %, at most 2 s), but always gets at least 30 % of the limit
+ * after the model is built, so a slow start (a loaded machine) cannot leave it no time at all.
+ */
+export function solverDeadline(run: Pick<FillRun, "t0" | "s">, now = performance.now()): number {
+  const limitMs = run.s.timeLimitSeconds * 1000;
+  const explainShare = Math.min(2000, 0.15 * limitMs);
+  return Math.max(now + 0.3 * limitMs, run.t0 + limitMs - explainShare);
 }
 
 function roundTimings<T extends Record<string, number>>(t: T): T {

@@ -40,7 +40,7 @@ export function FillProgressCard({ progress, elapsed, limit, onCancel }: { progr
         <div className="h-full bg-copper transition-all" style={{ width: `${width}%` }} />
       </div>
       <p className="mt-1 text-xs text-ink-500">
-        {elapsed.toFixed(0)} s; the solver stops at {limit} s, then the crew rules re-check the answer
+        {elapsed.toFixed(0)} s of about {limit} s (the time limit covers the whole fill; the crew rules re-check the answer)
         {progress?.gap !== null && progress?.gap !== undefined ? ` · gap to the bound ${pct(progress.gap)}` : ""}. Cancel stops the work on the server; nothing is
         placed until you accept.
       </p>

@@ -16,7 +16,8 @@ import type { Solved } from "./solve";
 export async function explain(run: FillRun, solved: Solved, placedOn: Map<string, string[]>): Promise<{ openOrders: OpenOrder[]; openSeats: OpenSeat[] }> {
   await checkpoint(run, "explain");
   const t = performance.now();
-  const explainDeadline = t + Math.max(1000, 0.15 * run.s.timeLimitSeconds * 1000);
+  // Whatever is left of the fill's time limit, and at least a second (fill.ts solverDeadline).
+  const explainDeadline = Math.max(t + 1000, run.t0 + run.s.timeLimitSeconds * 1000);
   const openOrders: OpenOrder[] = [];
   const openSeats: OpenSeat[] = [];
   const { rounds } = solved;

@@ -79,7 +79,8 @@ export async function phaseTwo(st: SolveState, a: SolveOutcome): Promise<{ b: So
   await checkpoint(run, "cost");
   const heldY = new Map<number, number>(pr.yCols.map((yc) => [yc, a.values![yc] > 0.5 ? 1 : 0]));
   if (!cs.exact) seedFairness(run, full, heldY, cs.activate);
-  const genB = await pr.generate(full.costB, Math.max(2.5, 0.25 * s.timeLimitSeconds), "cost", heldY, s.gap / 2, (k) => Math.max(8, 3 * k));
+  // Pricing may go on until a second (a tenth of the limit) before the deadline: the dive after it takes a fraction of that.
+  const genB = await pr.generate(full.costB, Math.max(1, 0.1 * s.timeLimitSeconds), "cost", heldY, s.gap / 2, (k) => Math.max(8, 3 * k));
   const actB = cs.withPairs();
   const bonusOf = (v: Float64Array) => {
     let bonus = 0;

@@ -87,7 +87,7 @@ export class Pricing {
     };
     for (let r = 0; r < run.s.maxPricingRounds; r++) {
       this.rounds++;
-      const lpRes = glp.solve(remaining(run));
+      const lpRes = glp.solve(remaining(run), r === 0 || process.env.FILL_SIMPLEX === "dual" ? "dual" : "primal");
       run.timings.solverMs += lpRes.ms;
       if (process.env.FILL_DEBUG) console.error("  lp", lpRes.status, lpRes.ms.toFixed(0), "ms obj", lpRes.objective, "active", cs.count());
       if (!lpRes.optimal || !lpRes.duals) {
@@ -100,6 +100,7 @@ export class Pricing {
       const { best, rcOf, tol } = this.price(cost, pi, closed);
       bestBound = Math.max(bestBound, lagrangianBound(full, cs, cost, pi, this.yCols, this.groupsOfOrder, fixY));
       const dAdd = this.doublingsToAdd(closed, rcOf, tol);
+      if (process.env.FILL_DEBUG) console.error(`    bound ${bestBound}, ${best.size} groups and ${dAdd.length} doublings price in`);
       await checkpoint(run, phase, Number.isFinite(bestBound) ? relGap(lpRes.objective, bestBound) : null);
       if (!best.size && !dAdd.length) return { bound: lpRes.objective, values: lastValues, objective: lastObjective };
       // Close enough: the LP cannot improve by more than half the gap the fill may leave.
