@@ -3,7 +3,7 @@
 import { zodResolver } from "@hookform/resolvers/zod";
 import { useEffect, useId, useRef, useState } from "react";
 import { useForm } from "react-hook-form";
-import { FormActions, FormAlert, SelectField, TextField } from "@/components/form/fields";
+import { FormActions, FormError, SelectField, TextField } from "@/components/form/fields";
 import { useApiMutation } from "@/lib/api/mutations";
 import {
   credentialCreateSchema,
@@ -191,11 +191,7 @@ export function CredentialForm({ workerId, type, choices = [], today, mode, onDo
         error={errors.note?.message}
         {...form.register("note")}
       />
-      {save.errorText && (
-        <div className="sm:col-span-2 lg:col-span-4">
-          <FormAlert tone="block">{save.errorText}</FormAlert>
-        </div>
-      )}
+      <FormError className="sm:col-span-2 lg:col-span-4" text={save.errorText} />
       <FormActions className="flex flex-wrap gap-2 sm:col-span-2 lg:col-span-4" label={mode === "own" ? "Send to HR" : type ? "Save renewal" : "Save qualification"} busy={busy} onCancel={onCancel}>
         {mode === "hr" && <span className="self-center text-xs text-ink-500">Saved as verified by you, now. The old record stays in the history.</span>}
       </FormActions>

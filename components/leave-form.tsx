@@ -2,9 +2,8 @@
 
 import { zodResolver } from "@hookform/resolvers/zod";
 import { useForm } from "react-hook-form";
-import { useState } from "react";
 import { ChoiceGroup, FormAlert, SelectField, TextField } from "@/components/form/fields";
-import { WorkerOptions } from "@/components/worker-options";
+import { WorkerOptions } from "@/components/form/options";
 import { useApiMutation } from "@/lib/api/mutations";
 import { unavailabilitySchema, type UnavailabilityFormValues } from "@/lib/leave/model";
 
@@ -38,7 +37,6 @@ const KINDS = [
  * like POST /api/unavailability, which answers 422 naming the field.
  */
 export function LeaveForm({ workers = [], workerId, asks, defaults = { start: "", end: "" }, yardName, className = "space-y-3" }: Props) {
-  const [done, setDone] = useState<string | null>(null);
   const fixedId = workerId ?? (workers.length === 1 ? workers[0].id : 0);
   const blank = { workerId: fixedId, kind: "leave" as const, start: defaults.start, end: defaults.end, note: "" };
   const form = useForm<UnavailabilityFormValues>({ resolver: zodResolver(unavailabilitySchema as never) as never, defaultValues: blank });
@@ -48,19 +46,18 @@ export function LeaveForm({ workers = [], workerId, asks, defaults = { start: ""
     request: (values) => ({ url: "/api/unavailability", method: "POST", body: values }),
     form,
     refresh: true,
-    onSuccess: (r, values) => {
-      setDone(r.status === "requested" ? "Asked. A supervisor approves or refuses it; you see the answer here." : `Entered for ${r.workerName}. Boards re-check at once.`);
-      form.reset({ ...values, note: "" });
-    },
+    onSuccess: (_r, values) => form.reset({ ...values, note: "" }),
   });
+  const done = save.isSuccess && save.data
+    ? save.data.status === "requested"
+      ? "Asked. A supervisor approves or refuses it; you see the answer here."
+      : `Entered for ${save.data.workerName}. Boards re-check at once.`
+    : null;
   const title = asks ? "Ask for time off" : "Enter time off";
 
   return (
     <form
-      onSubmit={form.handleSubmit((v) => {
-        setDone(null);
-        return save.submit(v);
-      })}
+      onSubmit={form.handleSubmit(save.submit)}
       noValidate
       className={className}
       aria-label={title}

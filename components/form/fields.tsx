@@ -97,39 +97,26 @@ export function FieldFrame({
 }
 
 type InputProps = Omit<InputHTMLAttributes<HTMLInputElement>, "id"> & { ref?: Ref<HTMLInputElement> };
-
-export function TextField({ label, hint, error, id, wrapperClassName, hideLabel, className = "field", ...input }: FieldFrameProps & InputProps) {
-  const f = useFieldIds(id, input.name, hint, error);
-  return (
-    <FieldFrame label={label} hint={hint} error={error} wrapperClassName={wrapperClassName} hideLabel={hideLabel} {...f}>
-      <input id={f.controlId} className={className} {...f.aria} {...input} />
-    </FieldFrame>
-  );
-}
-
 type SelectProps = Omit<SelectHTMLAttributes<HTMLSelectElement>, "id"> & { ref?: Ref<HTMLSelectElement> };
-
-export function SelectField({ label, hint, error, id, wrapperClassName, hideLabel, className = "field", children, ...select }: FieldFrameProps & SelectProps) {
-  const f = useFieldIds(id, select.name, hint, error);
-  return (
-    <FieldFrame label={label} hint={hint} error={error} wrapperClassName={wrapperClassName} hideLabel={hideLabel} {...f}>
-      <select id={f.controlId} className={className} {...f.aria} {...select}>
-        {children}
-      </select>
-    </FieldFrame>
-  );
-}
-
 type TextAreaProps = Omit<TextareaHTMLAttributes<HTMLTextAreaElement>, "id"> & { ref?: Ref<HTMLTextAreaElement> };
 
-export function TextAreaField({ label, hint, error, id, wrapperClassName, hideLabel, className = "field", ...area }: FieldFrameProps & TextAreaProps) {
-  const f = useFieldIds(id, area.name, hint, error);
-  return (
-    <FieldFrame label={label} hint={hint} error={error} wrapperClassName={wrapperClassName} hideLabel={hideLabel} {...f}>
-      <textarea id={f.controlId} className={className} {...f.aria} {...area} />
-    </FieldFrame>
-  );
+/** One labelled field around the control `render` draws (it gets the id, class and aria attributes). */
+function labelled<P extends { name?: string; className?: string }>(render: (control: P & { id: string }) => ReactNode) {
+  return function Field({ label, hint, error, id, wrapperClassName, hideLabel, className = "field", ...control }: FieldFrameProps & P) {
+    const f = useFieldIds(id, control.name, hint, error);
+    const props = { id: f.controlId, className, ...f.aria, ...control } as unknown as P & { id: string };
+    return (
+      <FieldFrame label={label} hint={hint} error={error} wrapperClassName={wrapperClassName} hideLabel={hideLabel} {...f}>
+        {render(props)}
+      </FieldFrame>
+    );
+  };
 }
+
+export const TextField = labelled<InputProps>((p) => <input {...p} />);
+/** Its <option>s are its children. */
+export const SelectField = labelled<SelectProps>((p) => <select {...p} />);
+export const TextAreaField = labelled<TextAreaProps>((p) => <textarea {...p} />);
 
 /** A checkbox (or radio) with its label beside it, and its error and hint below. */
 export function CheckField({
@@ -211,6 +198,16 @@ export function FormActions({
         </button>
       )}
       {children}
+    </div>
+  );
+}
+
+/** A write's refusal as an alert inside its wrapper (grid spans); nothing when there is none. */
+export function FormError({ text, className }: { text?: string | null; className?: string }) {
+  if (!text) return null;
+  return (
+    <div className={className}>
+      <FormAlert tone="block">{text}</FormAlert>
     </div>
   );
 }

@@ -4,6 +4,7 @@ import Link from "next/link";
 import { useEffect, useMemo, useState } from "react";
 import { useTable, type PaginationState, type SortingState } from "@tanstack/react-table";
 import { SelectField, TextField } from "@/components/form/fields";
+import { YardOptions } from "@/components/form/options";
 import type { CredentialDetail } from "@/lib/credentials/model";
 import { inView as inViewOf, type CredentialView } from "@/lib/credentials/model";
 import { columns, features } from "./credentials-columns";
@@ -114,12 +115,7 @@ export function CredentialsTable({ rows, yards, types, canEdit, initial }: Props
           onChange={(e) => table.setGlobalFilter(e.target.value)}
         />
         <SelectField id="cred-yard" label="Yard" value={yard} onChange={(e) => setYard(e.target.value)}>
-          <option value="">All yards</option>
-          {yards.map((y) => (
-            <option key={y.code} value={y.code}>
-              {y.name} ({y.code})
-            </option>
-          ))}
+          <YardOptions yards={yards} by="code" all="All yards" withCode />
         </SelectField>
         <SelectField id="cred-type" label="Qualification" value={qualification} onChange={(e) => setQualification(e.target.value)}>
           <option value="">All qualifications</option>

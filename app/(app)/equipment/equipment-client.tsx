@@ -2,6 +2,7 @@
 
 import { useMemo, useState } from "react";
 import { SelectField } from "@/components/form/fields";
+import { YardOptions } from "@/components/form/options";
 import { EQUIPMENT_KINDS, EQUIPMENT_KIND_LABEL, type Equipment } from "@/lib/equipment/model";
 import { EquipmentForm, type YardOpt } from "./equipment-form";
 import { EquipmentRow } from "./equipment-row";
@@ -42,12 +43,7 @@ export function EquipmentClient({
     <div className="grid gap-4">
       <div className="card flex flex-wrap items-end gap-3 p-3" role="group" aria-label="Filters">
         <SelectField id="eqf-yard" label="Yard" className="field w-auto" value={yard} onChange={(e) => setYard(e.target.value)}>
-          <option value="">All yards</option>
-          {yards.map((y) => (
-            <option key={y.id} value={y.code}>
-              {y.name}
-            </option>
-          ))}
+          <YardOptions yards={yards} by="code" all="All yards" />
         </SelectField>
         <SelectField id="eqf-kind" label="Kind" className="field w-auto" value={kind} onChange={(e) => setKind(e.target.value)}>
           <option value="">All kinds</option>

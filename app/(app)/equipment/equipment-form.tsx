@@ -1,7 +1,8 @@
 "use client";
 
 import { useForm } from "react-hook-form";
-import { CheckField, FormActions, FormAlert, SelectField, TextField } from "@/components/form/fields";
+import { CheckField, FormActions, FormError, SelectField, TextField } from "@/components/form/fields";
+import { YardOptions } from "@/components/form/options";
 import { useApiMutation } from "@/lib/api/mutations";
 import { EQUIPMENT_KINDS, EQUIPMENT_KIND_LABEL, type Equipment, type EquipmentKind } from "@/lib/equipment/model";
 
@@ -67,11 +68,7 @@ export function EquipmentForm({ equipment: e, yards, homeYardCode, onClose }: { 
       <TextField id={id("unit")} label="Unit number" error={err.unitNumber?.message} {...register("unitNumber")} />
       <TextField id={id("name")} wrapperClassName="lg:col-span-2" label="Name" error={err.name?.message} {...register("name")} />
       <SelectField id={id("yard")} label="Yard" error={err.yardId?.message} {...register("yardId")}>
-        {yards.map((y) => (
-          <option key={y.id} value={y.id}>
-            {y.name}
-          </option>
-        ))}
+        <YardOptions yards={yards} by="id" />
       </SelectField>
       <SelectField id={id("kind")} label="Kind" error={err.kind?.message} {...register("kind")}>
         {EQUIPMENT_KINDS.map((k) => (
@@ -99,11 +96,7 @@ export function EquipmentForm({ equipment: e, yards, homeYardCode, onClose }: { 
         />
       )}
       <FormActions className="flex gap-2 sm:col-span-2 lg:col-span-4" label="Save" busy={save.isPending} onCancel={onClose} />
-      {save.errorText && (
-        <div className="sm:col-span-2 lg:col-span-4">
-          <FormAlert>{save.errorText}</FormAlert>
-        </div>
-      )}
+      <FormError className="sm:col-span-2 lg:col-span-4" text={save.errorText} />
     </form>
   );
 }

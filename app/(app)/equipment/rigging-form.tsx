@@ -1,7 +1,7 @@
 "use client";
 
 import { useForm } from "react-hook-form";
-import { FormActions, FormAlert, SelectField, TextField } from "@/components/form/fields";
+import { FormActions, FormError, SelectField, TextField } from "@/components/form/fields";
 import { useApiMutation } from "@/lib/api/mutations";
 import { RIGGING_KINDS, RIGGING_KIND_LABEL, type RiggingKind } from "@/lib/equipment/model";
 
@@ -48,11 +48,7 @@ export function RiggingForm({ equipmentId, unit, onClose }: { equipmentId: numbe
       <TextField id={id("wll")} inputMode="numeric" label="WLL (lb)" error={e.wllLb?.message} {...register("wllLb")} />
       <TextField id={id("inspected")} type="date" label="Last inspection" error={e.inspectedOn?.message} {...register("inspectedOn")} />
       <FormActions className="flex items-end gap-2 sm:col-span-3" label="Add" busyLabel="Add" busy={save.isPending} onCancel={onClose} />
-      {save.errorText && (
-        <div className="sm:col-span-3">
-          <FormAlert>{save.errorText}</FormAlert>
-        </div>
-      )}
+      <FormError className="sm:col-span-3" text={save.errorText} />
     </form>
   );
 }

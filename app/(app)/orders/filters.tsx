@@ -1,6 +1,7 @@
 // The orders list's and calendar's filter bar: a plain GET form, so it works before any script loads.
 import Link from "next/link";
 import { SelectField, TextField } from "@/components/form/fields";
+import { YardOptions } from "@/components/form/options";
 import { ORDER_STATUSES, STATUS_LABEL } from "@/lib/orders/status";
 
 export interface FilterValues {
@@ -30,12 +31,7 @@ export function OrderFilters({
   return (
     <form method="get" action={action} className="card mb-4 grid grid-cols-2 gap-3 p-3 sm:grid-cols-3 lg:flex lg:flex-wrap lg:items-end" role="search" aria-label="Filter orders">
       <SelectField id="f-yard" name="yard" label="Yard" defaultValue={values.yard}>
-        <option value="">All yards</option>
-        {yards.map((y) => (
-          <option key={y.code} value={y.code}>
-            {y.name}
-          </option>
-        ))}
+        <YardOptions yards={yards} by="code" all="All yards" />
       </SelectField>
       {range ? (
         <>

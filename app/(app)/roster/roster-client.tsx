@@ -3,6 +3,7 @@
 import Link from "next/link";
 import { useMemo, useState } from "react";
 import { FormAlert, SelectField, TextField } from "@/components/form/fields";
+import { YardOptions } from "@/components/form/options";
 import { Badge } from "@/components/status";
 import { CLASSIFICATION_LABEL } from "@/lib/format";
 import type { WorkerRow } from "@/lib/workers/model";
@@ -66,12 +67,7 @@ export function RosterClient({ workers, yards, canEdit, canSeeCredentials, editI
       <div className="card mb-3 grid gap-3 p-3 sm:grid-cols-2 lg:grid-cols-[2fr_1fr_1fr_auto] lg:items-end">
         <TextField id="roster-q" type="search" label="Search" placeholder="Name, employee number, phone, e-mail" value={q} onChange={(e) => setQ(e.target.value)} />
         <SelectField id="roster-yard" label="Yard" value={yard} onChange={(e) => setYard(e.target.value)}>
-          <option value="">All yards</option>
-          {yards.map((y) => (
-            <option key={y.id} value={y.code}>
-              {y.name} ({y.code})
-            </option>
-          ))}
+          <YardOptions yards={yards} by="code" all="All yards" withCode />
         </SelectField>
         <SelectField id="roster-state" label="Show" value={state} onChange={(e) => setState(e.target.value as typeof state)}>
           <option value="active">Active workers</option>

@@ -4,6 +4,7 @@ import { zodResolver } from "@hookform/resolvers/zod";
 import { useState } from "react";
 import { useForm } from "react-hook-form";
 import { CheckField, FormActions, FormAlert, SelectField, TextField } from "@/components/form/fields";
+import { YardOptions } from "@/components/form/options";
 import { useApiMutation } from "@/lib/api/mutations";
 import { CLASSIFICATION_LABEL } from "@/lib/format";
 import type { WorkerRow } from "@/lib/workers/model";
@@ -92,11 +93,7 @@ export function WorkerForm({ worker, yards, onDone, onCancel }: Props) {
         ))}
       </SelectField>
       <SelectField id="wf-yardId" label="Yard" error={e("yardId")} {...form.register("yardId")}>
-        {yards.map((y) => (
-          <option key={y.id} value={y.id}>
-            {y.name} ({y.code})
-          </option>
-        ))}
+        <YardOptions yards={yards} by="id" withCode />
       </SelectField>
       <TextField
         id="wf-phone"

@@ -2,10 +2,9 @@
 
 import { zodResolver } from "@hookform/resolvers/zod";
 import Link from "next/link";
-import { useState } from "react";
 import { useForm } from "react-hook-form";
 import { FormAlert, SelectField, TextField } from "@/components/form/fields";
-import { WorkerOptions } from "@/components/worker-options";
+import { WorkerOptions } from "@/components/form/options";
 import { useApiMutation } from "@/lib/api/mutations";
 import { callOutSchema, type CallOutFormValues } from "@/lib/rotations/model";
 import type { WorkerOption } from "./rotation-form";
@@ -18,7 +17,6 @@ interface Props {
 
 /** Record a call-out: it becomes a time record (kind call_out), which the rest rule reads. */
 export function CallOutForm({ workers, rotations, defaults }: Props) {
-  const [done, setDone] = useState<{ text: string; href: string } | null>(null);
   const form = useForm<CallOutFormValues>({
     resolver: zodResolver(callOutSchema as never) as never,
     defaultValues: { workerId: 0, rotationId: rotations[0]?.id ?? null, start: defaults.start, end: defaults.end, note: "" },
@@ -31,22 +29,14 @@ export function CallOutForm({ workers, rotations, defaults }: Props) {
     request: (values) => ({ url: "/api/call-outs", method: "POST", body: values }),
     form,
     refresh: true,
-    onSuccess: (r, values) => {
-      const w = workers.find((x) => x.id === Number(values.workerId));
-      setDone({
-        text: `Call-out recorded: ${r.hours} h for ${w?.name ?? "the worker"}. Boards re-check rest at once.`,
-        href: `/time?${new URLSearchParams({ worker: String(values.workerId), week: String(values.start).slice(0, 10) })}`,
-      });
-      form.reset({ ...values, note: "" });
-    },
+    onSuccess: (_r, values) => form.reset({ ...values, note: "" }),
   });
+  const sent = save.isSuccess ? save.variables : undefined;
+  const who = sent && workers.find((x) => x.id === Number(sent.workerId));
 
   return (
     <form
-      onSubmit={form.handleSubmit((v) => {
-        setDone(null);
-        return save.submit(v);
-      })}
+      onSubmit={form.handleSubmit(save.submit)}
       noValidate
       className="space-y-3"
       aria-label="Record a call-out"
@@ -82,10 +72,10 @@ export function CallOutForm({ workers, rotations, defaults }: Props) {
       </p>
       <TextField id="co-note" label="What was it" placeholder="e.g. transformer fuse out at N-2871" error={errors.note?.message} {...register("note")} />
       {save.errorText && <FormAlert tone="block">{save.errorText}</FormAlert>}
-      {done && (
+      {sent && (
         <FormAlert tone="clear">
-          {done.text}{" "}
-          <Link href={done.href} className="underline">
+          Call-out recorded: {save.data?.hours} h for {who?.name ?? "the worker"}. Boards re-check rest at once.{" "}
+          <Link href={`/time?${new URLSearchParams({ worker: String(sent.workerId), week: String(sent.start).slice(0, 10) })}`} className="underline">
             See the week
           </Link>
         </FormAlert>

@@ -4,6 +4,7 @@ import { zodResolver } from "@hookform/resolvers/zod";
 import { useMemo, useState } from "react";
 import { useForm } from "react-hook-form";
 import { CheckField, FieldError, FormAlert, SelectField, TextField } from "@/components/form/fields";
+import { YardOptions } from "@/components/form/options";
 import { useApiMutation } from "@/lib/api/mutations";
 import { WEEKDAYS, WEEKDAY_LABEL, parseRrule, type WeekdayCode } from "@/lib/time/recurrence";
 import { schedule } from "@/lib/rotations/schedule";
@@ -39,7 +40,6 @@ const WEEKLY_RE = /^FREQ=WEEKLY;BYDAY=(MO|TU|WE|TH|FR|SA|SU)$/;
 
 /** Create or edit an on-call rotation; validated with rotationSchema, like POST/PATCH /api/rotations. */
 export function RotationForm({ yards, workers, initial, rotationId, version, onDone }: Props) {
-  const [saved, setSaved] = useState(false);
   const weekly = WEEKLY_RE.exec(initial.rrule ?? "");
   const [simple, setSimple] = useState(Boolean(weekly) || !initial.rrule);
   const [day, setDay] = useState<WeekdayCode>((weekly?.[1] as WeekdayCode) ?? "MO");
@@ -70,10 +70,7 @@ export function RotationForm({ yards, workers, initial, rotationId, version, onD
     request: (values) => (rotationId ? { url: `/api/rotations/${rotationId}`, method: "PATCH", body: { ...values, version } } : { url: "/api/rotations", method: "POST", body: values }),
     form,
     refresh: true,
-    onSuccess: () => {
-      setSaved(true);
-      onDone?.();
-    },
+    onSuccess: () => onDone?.(),
   });
 
   const err = (n: keyof RotationFormValues) => errors[n]?.message as string | undefined;
@@ -81,21 +78,14 @@ export function RotationForm({ yards, workers, initial, rotationId, version, onD
 
   return (
     <form
-      onSubmit={form.handleSubmit((v) => {
-        setSaved(false);
-        return save.submit(v);
-      })}
+      onSubmit={form.handleSubmit(save.submit)}
       noValidate
       className="space-y-3"
     >
       <div className="grid gap-3 sm:grid-cols-2">
         <TextField id={`r-name-${key}`} label="Name" error={err("name")} {...register("name")} />
         <SelectField id={`r-yard-${key}`} label="Yard" error={err("yardId")} {...register("yardId", { setValueAs: Number })}>
-          {yards.map((y) => (
-            <option key={y.id} value={y.id}>
-              {y.name}
-            </option>
-          ))}
+          <YardOptions yards={yards} by="id" />
         </SelectField>
       </div>
 
@@ -169,7 +159,7 @@ export function RotationForm({ yards, workers, initial, rotationId, version, onD
       <CheckField id={`r-active-${key}`} label="Active (shows on the board)" error={err("active")} {...register("active")} />
 
       {save.errorText && <FormAlert tone="block">{save.errorText}</FormAlert>}
-      {saved && <FormAlert tone="clear">{rotationId ? "Rotation saved." : "Rotation created."}</FormAlert>}
+      {save.isSuccess && <FormAlert tone="clear">{rotationId ? "Rotation saved." : "Rotation created."}</FormAlert>}
       <button type="submit" className="btn-primary" disabled={save.isPending}>
         {rotationId ? "Save rotation" : "Create rotation"}
       </button>

@@ -1,7 +1,6 @@
 "use client";
 
 import { zodResolver } from "@hookform/resolvers/zod";
-import { useState } from "react";
 import { useForm } from "react-hook-form";
 import { FormAlert, TextField } from "@/components/form/fields";
 import { useApiMutation } from "@/lib/api/mutations";
@@ -9,7 +8,6 @@ import { manualTimeRecordSchema, type ManualTimeRecordValues } from "@/lib/time-
 
 /** A manual time entry (reason required), validated like POST /api/time-records. */
 export function ManualForm({ workerId, defaults }: { workerId: number; defaults: { start: string; end: string } }) {
-  const [done, setDone] = useState(false);
   const form = useForm<ManualTimeRecordValues>({
     resolver: zodResolver(manualTimeRecordSchema as never) as never,
     defaultValues: { workerId, start: defaults.start, end: defaults.end, reason: "" },
@@ -20,17 +18,11 @@ export function ManualForm({ workerId, defaults }: { workerId: number; defaults:
     request: (values) => ({ url: "/api/time-records", method: "POST", body: values }),
     form,
     refresh: true,
-    onSuccess: (_r, values) => {
-      setDone(true);
-      form.reset({ ...values, reason: "" });
-    },
+    onSuccess: (_r, values) => form.reset({ ...values, reason: "" }),
   });
   return (
     <form
-      onSubmit={form.handleSubmit((v) => {
-        setDone(false);
-        return save.submit(v);
-      })}
+      onSubmit={form.handleSubmit(save.submit)}
       noValidate
       className="space-y-3"
       aria-label="Enter time by hand"
@@ -42,7 +34,7 @@ export function ManualForm({ workerId, defaults }: { workerId: number; defaults:
       </div>
       <TextField id="tm-reason" label="Reason (required)" placeholder="e.g. worked storm cleanup, not on an order" error={errors.reason?.message} {...register("reason")} />
       {save.errorText && <FormAlert tone="block">{save.errorText}</FormAlert>}
-      {done && <FormAlert tone="clear">Time entered. Boards re-check rest at once.</FormAlert>}
+      {save.isSuccess && <FormAlert tone="clear">Time entered. Boards re-check rest at once.</FormAlert>}
       <button type="submit" className="btn-primary" disabled={save.isPending}>
         Enter time
       </button>

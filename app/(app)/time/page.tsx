@@ -1,6 +1,6 @@
 import Link from "next/link";
 import { SelectField, TextField } from "@/components/form/fields";
-import { WorkerOptions } from "@/components/worker-options";
+import { WorkerOptions } from "@/components/form/options";
 import { requirePageRole } from "@/lib/auth/session";
 import { db } from "@/lib/db";
 import { Badge, PageHeader } from "@/components/status";

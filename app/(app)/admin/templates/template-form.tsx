@@ -23,7 +23,6 @@ const RULE_LABEL: Record<string, string> = {
 export function TemplateForm({ type }: { type: WorkTypeView }) {
   const [rows, setRows] = useState<Position[]>(type.positions);
   const [add, setAdd] = useState<Position>("ground");
-  const [saved, setSaved] = useState(false);
   const form = useForm<CrewTemplateInput>({
     resolver: zodResolver(crewTemplateSchema as never) as never,
     defaultValues: { name: type.name, minCrew: type.minCrew, digs: type.digs, positions: type.positions },
@@ -39,15 +38,11 @@ export function TemplateForm({ type }: { type: WorkTypeView }) {
     request: (values) => ({ url: `/api/work-types/${type.id}`, method: "PUT", body: values }),
     form,
     refresh: true,
-    onSuccess: () => setSaved(true),
   });
 
   return (
     <form
-      onSubmit={form.handleSubmit((v) => {
-        setSaved(false);
-        return save.submit(v);
-      })}
+      onSubmit={form.handleSubmit(save.submit)}
       noValidate className="card space-y-3 p-4" aria-label={`Crew template: ${type.name}`}>
       <div className="flex items-baseline justify-between gap-2">
         <p className="text-xs font-bold uppercase tracking-widest text-copper">
@@ -101,7 +96,7 @@ export function TemplateForm({ type }: { type: WorkTypeView }) {
         )}
       </div>
       {save.errorText && <FormAlert tone="block">{save.errorText}</FormAlert>}
-      {saved && <FormAlert tone="clear">Saved. New orders of this type start with this crew.</FormAlert>}
+      {save.isSuccess && <FormAlert tone="clear">Saved. New orders of this type start with this crew.</FormAlert>}
       <button type="submit" className="btn-primary" disabled={save.isPending}>
         Save template
       </button>

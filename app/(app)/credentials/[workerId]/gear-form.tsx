@@ -1,7 +1,7 @@
 "use client";
 
 import { useForm } from "react-hook-form";
-import { FormActions, FormAlert, SelectField, TextField } from "@/components/form/fields";
+import { FormActions, FormError, SelectField, TextField } from "@/components/form/fields";
 import { useApiMutation } from "@/lib/api/mutations";
 import { GEAR_CLASSES, GEAR_KIND_LABEL, GEAR_KINDS, classLabel } from "@/lib/gear/model";
 
@@ -20,11 +20,7 @@ export function GearForm({ workerId, today, onDone, onCancel }: { workerId: numb
   });
   return (
     <form onSubmit={form.handleSubmit(save.submit)} className="card mb-3 grid gap-3 p-4 sm:grid-cols-3" aria-label="Record rubber goods" noValidate>
-      {save.errorText && (
-        <div className="sm:col-span-3">
-          <FormAlert tone="block">{save.errorText}</FormAlert>
-        </div>
-      )}
+      <FormError className="sm:col-span-3" text={save.errorText} />
       <SelectField label="Kind" error={e.kind?.message} {...register("kind")}>
         {GEAR_KINDS.map((k) => (
           <option key={k} value={k}>

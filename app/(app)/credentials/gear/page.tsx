@@ -1,5 +1,6 @@
 import Link from "next/link";
 import { SelectField, TextField } from "@/components/form/fields";
+import { YardOptions } from "@/components/form/options";
 import { requirePageRole } from "@/lib/auth/session";
 import { CAN_KEEP_CREDENTIALS } from "@/lib/users/roles";
 import { db } from "@/lib/db";
@@ -54,12 +55,7 @@ export default async function GearPage({ searchParams }: { searchParams: Promise
       <form className="mb-4 flex flex-wrap items-end gap-2" action="/credentials/gear">
         <input type="hidden" name="view" value={view} />
         <SelectField id="gear-f-yard" name="yard" label="Yard" defaultValue={yard ?? ""}>
-          <option value="">All yards</option>
-          {yards.map((y) => (
-            <option key={y.code} value={y.code}>
-              {y.name}
-            </option>
-          ))}
+          <YardOptions yards={yards} by="code" all="All yards" />
         </SelectField>
         <TextField id="gear-f-q" name="q" label="Worker, number or serial" defaultValue={q ?? ""} />
         <button className="btn-quiet" type="submit">

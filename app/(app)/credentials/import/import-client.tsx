@@ -2,7 +2,7 @@
 
 import Link from "next/link";
 import { useState } from "react";
-import { FormAlert, TextField } from "@/components/form/fields";
+import { FormError, TextField } from "@/components/form/fields";
 import { apiUpload, asFailure } from "@/lib/api/client";
 import { importRowSchema, type ImportIssue } from "@/lib/credentials/model";
 import { parseCredentialCsv, type ImportRow } from "@/lib/credentials/csv";
@@ -154,11 +154,7 @@ export function ImportClient({ codes }: { codes: { code: string; name: string; r
             </div>
           )}
           {ignored.length > 0 && <p className="mt-2 text-xs text-ink-500">Columns ignored: {ignored.join(", ")}.</p>}
-          {error && (
-            <div className="mt-3">
-              <FormAlert tone="block">{error}</FormAlert>
-            </div>
-          )}
+          <FormError className="mt-3" text={error} />
           {result?.ok && phase === "checked" && (
             <p role="status" className="mt-3 rounded-md bg-clear-bg px-3 py-2 text-sm font-semibold text-clear">
               ✓ All {result.rows} rows are good: {result.created} record{result.created === 1 ? "" : "s"} to write

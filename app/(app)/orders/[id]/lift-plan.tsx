@@ -2,7 +2,7 @@
 
 import { useState } from "react";
 import { useForm } from "react-hook-form";
-import { FormActions, FormAlert, SelectField, TextField } from "@/components/form/fields";
+import { FormActions, FormError, SelectField, TextField } from "@/components/form/fields";
 import { useApiMutation } from "@/lib/api/mutations";
 import type { LiftPlan, RiggingChoice } from "@/lib/gear/lift";
 
@@ -103,11 +103,7 @@ export function LiftPlanEditor({ orderId, plan, rigging, canEdit, lifting }: { o
 
   return (
     <form onSubmit={form.handleSubmit(save.submit)} className="mt-3 grid gap-3 sm:grid-cols-3" aria-label="Lift plan" noValidate>
-      {save.errorText && (
-        <div className="sm:col-span-3">
-          <FormAlert tone="block">{save.errorText}</FormAlert>
-        </div>
-      )}
+      <FormError className="sm:col-span-3" text={save.errorText} />
       {rigging.length === 0 && (
         <p className="text-xs text-ink-500 sm:col-span-3">No truck with rigging is on this order yet: type each part&apos;s working load limit from its tag.</p>
       )}

@@ -1,6 +1,7 @@
 "use client";
 
 import { SelectField, TextField } from "@/components/form/fields";
+import { YardOptions } from "@/components/form/options";
 import { ORDER_STATUSES, PRIORITY_LABEL, STATUS_LABEL } from "@/lib/orders/status";
 import type { WorkTypeView } from "@/lib/orders/model";
 import { emptyToNull, fieldError, type Mode, type OrderFormApi, type YardOption } from "./shared";
@@ -31,11 +32,7 @@ export function WhatWhere({
       <TextField label="Title" error={err("title")} {...register("title")} />
       <div className="grid gap-3 sm:grid-cols-2">
         <SelectField label="Yard" error={err("yardId")} {...register("yardId", { setValueAs: Number })}>
-          {yards.filter((y) => mode !== "series" || y.id === fixedYardId).map((y) => (
-            <option key={y.id} value={y.id}>
-              {y.name} ({y.code})
-            </option>
-          ))}
+          <YardOptions yards={yards.filter((y) => mode !== "series" || y.id === fixedYardId)} by="id" withCode />
         </SelectField>
         <SelectField label="Work type" error={err("workTypeId")} {...register("workTypeId", { setValueAs: Number, onChange: (e) => onPickType(Number(e.target.value)) })}>
           {workTypes.map((t) => (
