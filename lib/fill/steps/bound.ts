@@ -34,12 +34,12 @@ export function lagrangianBound(
   }
   const rcs = new Float64Array(n);
   for (let j = 0; j < n; j++) {
+    if (full.kind[j] === Z) continue; // pair bonuses: left out of the bound (phases.ts compares without them)
     let rc = cost[j];
     for (let e = start[j]; e < start[j + 1]; e++) if (!full.seatRow[row[e]]) rc -= val[e] * pi[row[e]];
     rcs[j] = rc;
   }
-  const inGroup = new Uint8Array(n);
-  for (const cols of full.groupCols) for (const j of cols) inGroup[j] = 1;
+  const inGroup = inGroupOf(full, n);
   for (const yc of yCols) {
     let term = rcs[yc];
     for (const g of groupsOfOrder.get(yc) ?? []) {
@@ -61,4 +61,16 @@ export function lagrangianBound(
     L += Math.min(rcs[j] * full.lp.lower[j], rcs[j] * full.lp.upper[j]);
   }
   return L;
+}
+
+const inGroupCache = new WeakMap<Built, Uint8Array>();
+/** 1 for the seat columns (those in a seat group); the same for every bound of one model. */
+function inGroupOf(full: Built, n: number): Uint8Array {
+  let m = inGroupCache.get(full);
+  if (!m || m.length !== n) {
+    m = new Uint8Array(n);
+    for (const cols of full.groupCols) for (const j of cols) m[j] = 1;
+    inGroupCache.set(full, m);
+  }
+  return m;
 }
