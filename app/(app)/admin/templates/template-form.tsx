@@ -4,10 +4,11 @@ import { zodResolver } from "@hookform/resolvers/zod";
 import { useEffect, useState } from "react";
 import { useForm } from "react-hook-form";
 import { CheckField, FieldError, FormAlert, TextField } from "@/components/form/fields";
+import { PositionOptions } from "@/components/form/position-options";
 import { useApiMutation } from "@/lib/api/mutations";
 import { POSITION_LABEL } from "@/lib/format";
 import type { WorkTypeView } from "@/lib/orders/model";
-import { POSITIONS, type Position } from "@/lib/rules/types";
+import type { Position } from "@/lib/rules/types";
 import { crewTemplateSchema, type CrewTemplateInput } from "@/lib/orders/schema";
 
 const RULE_LABEL: Record<string, string> = {
@@ -65,12 +66,7 @@ export function TemplateForm({ type }: { type: WorkTypeView }) {
                 value={p}
                 onChange={(e) => setRows(rows.map((r, j) => (j === i ? (e.target.value as Position) : r)))}
               >
-                {POSITIONS.map((x) => (
-                  <option key={x} value={x}>
-                    {POSITION_LABEL[x]}
-                    {x === "lead" ? " (employee in charge)" : ""}
-                  </option>
-                ))}
+                <PositionOptions explain />
               </select>
               <button type="button" className="btn-quiet px-2" aria-label={`Remove ${POSITION_LABEL[p]}`} onClick={() => setRows(rows.filter((_, j) => j !== i))}>
                 ✕
@@ -80,11 +76,7 @@ export function TemplateForm({ type }: { type: WorkTypeView }) {
         </ul>
         <div className="mt-2 flex items-center gap-2">
           <select aria-label="Position to add" className="field w-auto" value={add} onChange={(e) => setAdd(e.target.value as Position)}>
-            {POSITIONS.map((x) => (
-              <option key={x} value={x}>
-                {POSITION_LABEL[x]}
-              </option>
-            ))}
+            <PositionOptions />
           </select>
           <button type="button" className="btn-quiet" onClick={() => setRows([...rows, add])}>
             Add position

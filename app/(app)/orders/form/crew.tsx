@@ -1,10 +1,11 @@
 "use client";
 
 import { FieldError, SelectField, TextField } from "@/components/form/fields";
+import { PositionOptions } from "@/components/form/position-options";
 import { POSITION_LABEL } from "@/lib/format";
 import { LICENCE_LABEL } from "@/lib/orders/status";
 import type { WorkTypeView } from "@/lib/orders/model";
-import { POSITIONS, type Position } from "@/lib/rules/types";
+import type { Position } from "@/lib/rules/types";
 import { useState } from "react";
 import { emptyToNull, fieldError, nullableNumber, type Mode, type OrderFormApi, type Row } from "./shared";
 
@@ -66,12 +67,7 @@ export function CrewSection({
                   value={row.position}
                   onChange={(e) => setRows(rows.map((r, j) => (j === i ? { ...r, position: e.target.value as Position } : r)))}
                 >
-                  {POSITIONS.map((p) => (
-                    <option key={p} value={p}>
-                      {POSITION_LABEL[p]}
-                      {p === "lead" ? " (employee in charge)" : ""}
-                    </option>
-                  ))}
+                  <PositionOptions explain />
                 </select>
                 {who && <span className="whitespace-nowrap text-xs font-semibold text-ink-700">{who.name}</span>}
                 <button
@@ -90,11 +86,7 @@ export function CrewSection({
         </ul>
         <div className="mt-2 flex items-center gap-2">
           <select aria-label="Position to add" className="field w-auto" value={addPosition} onChange={(e) => setAddPosition(e.target.value as Position)}>
-            {POSITIONS.map((p) => (
-              <option key={p} value={p}>
-                {POSITION_LABEL[p]}
-              </option>
-            ))}
+            <PositionOptions />
           </select>
           <button type="button" className="btn-quiet" onClick={() => setRows([...rows, { position: addPosition }])}>
             Add position
