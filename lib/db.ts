@@ -296,3 +296,9 @@ export async function withConflictRetry<T>(fn: () => Promise<T>, what = "write")
 export function transact<T>(q: Knex, fn: (trx: Knex.Transaction) => Promise<T>, opts: { isolationLevel?: "read committed" | "repeatable read"; what?: string } = {}): Promise<T> {
   return withConflictRetry(() => q.transaction(fn, { isolationLevel: opts.isolationLevel ?? "read committed" }), opts.what);
 }
+
+/** The port of the database server that answers this pool (GET /api/health?stats=1): a real query. */
+export async function answeringPort(): Promise<number> {
+  const [rows] = (await db().raw("select @@port as port")) as unknown as [{ port: number }[]];
+  return Number(rows[0]?.port);
+}

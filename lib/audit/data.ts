@@ -50,3 +50,15 @@ export async function listAudit(db: Knex, f: AuditFilter) {
   if (f.to) q.where("a.created_at", "<", f.to);
   return q;
 }
+
+/** What the audit page's filters offer: the actions that occur, and the people who can act. */
+export async function auditFilterChoices(db: Knex, organisationId: number) {
+  const [actions, people] = await Promise.all([
+    db("audit_log").where({ organisation_id: organisationId }).distinct("action").orderBy("action"),
+    db("users").where({ organisation_id: organisationId }).orderBy("name").select("id", "name"),
+  ]);
+  return {
+    actions: actions.map((a: { action: string }) => ({ action: String(a.action) })),
+    people: people.map((p: { id: number; name: string }) => ({ id: Number(p.id), name: p.name })),
+  };
+}

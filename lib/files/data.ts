@@ -274,3 +274,16 @@ export function contentDisposition(name: string, kind: "attachment" | "inline" =
     ? `${kind}; filename="${fallback}"`
     : `${kind}; filename="${fallback}"; filename*=UTF-8''${encoded}`;
 }
+
+/** A stored file's row, of the organisation (and of the given kind and order when asked), or null. */
+export async function fileRow(
+  db: Knex,
+  organisationId: number,
+  id: number,
+  only: { kind?: string; workOrderId?: number } = {},
+): Promise<Record<string, any> | null> {
+  const where: Record<string, unknown> = { id, organisation_id: organisationId };
+  if (only.kind) where.kind = only.kind;
+  if (only.workOrderId !== undefined) where.work_order_id = only.workOrderId;
+  return (await db("files").where(where).first()) ?? null;
+}

@@ -221,3 +221,9 @@ export async function workerThread(db: Knex, organisationId: number, workerId: n
 export async function messageWorkers(db: Knex, organisationId: number) {
   return db("workers").where({ organisation_id: organisationId }).orderBy(["last_name", "first_name"]).select("id", "first_name", "last_name", "phone_e164");
 }
+
+/** The stored inbound text with this provider message id (the phone simulator's own), or null. */
+export async function inboundBySid(db: Knex, providerSid: string): Promise<{ id: number; worker_id: number | null; outcome: string | null } | null> {
+  const row = await db("inbound_messages").where({ provider_sid: providerSid }).first("id", "worker_id", "outcome");
+  return row ? { id: Number(row.id), worker_id: row.worker_id ?? null, outcome: row.outcome ?? null } : null;
+}

@@ -334,3 +334,11 @@ export async function endSeries(trx: Knex.Transaction, actor: Actor, id: number)
   await postDays(trx, org, s.yard_id, gone.map((g) => String(g.work_date)), id);
   return { seriesId: id, removed: gone.length, created: 0, kept };
 }
+
+/** A series row of the organisation with the ids of its occurrences, or null. */
+export async function seriesWithOrderIds(db: Knex, organisationId: number, id: number) {
+  const s = await db("order_series").where({ id, organisation_id: organisationId }).first();
+  if (!s) return null;
+  const orderIds = (await db("work_orders").where({ series_id: id }).pluck("id")) as number[];
+  return { series: s as Record<string, any>, orderIds };
+}

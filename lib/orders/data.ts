@@ -570,3 +570,16 @@ function stripUndefined<T extends Record<string, unknown>>(o: T): Partial<T> {
 function pick(o: Record<string, unknown>, keys: readonly string[]) {
   return Object.fromEntries(keys.filter((k) => k !== "positions").map((k) => [k, o[k] ?? null]));
 }
+
+/** An order's id by its number (WO-26-0101), or null. */
+export async function orderIdByNumber(db: Q, organisationId: number, number: string): Promise<number | null> {
+  const o = await db("work_orders").where({ organisation_id: organisationId, number }).first("id");
+  return o ? Number(o.id) : null;
+}
+
+/** Order numbers by id, for the orders among `ids` that belong to the organisation. */
+export async function orderNumbers(db: Q, organisationId: number, ids: number[]): Promise<Map<number, string>> {
+  if (!ids.length) return new Map();
+  const rows = await db("work_orders").where({ organisation_id: organisationId }).whereIn("id", ids).select("id", "number");
+  return new Map(rows.map((o: { id: number; number: string }) => [Number(o.id), o.number]));
+}

@@ -189,3 +189,11 @@ export async function consumeReset(db: Knex, token: string, password: string) {
     return { reset: true, email: u.email };
   });
 }
+
+/** The Admin page's user list: every sign-in of the organisation, by role then name. */
+export async function listUserSummaries(db: Knex, organisationId: number) {
+  return db("users")
+    .where({ organisation_id: organisationId })
+    .orderBy(["role", "name"])
+    .select("id", "name", "email", "role", "active") as Promise<{ id: number; name: string; email: string; role: Role; active: number | boolean }[]>;
+}

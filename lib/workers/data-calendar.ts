@@ -108,3 +108,9 @@ export async function calendarFeed(db: Knex, token: string, now = new Date()): P
   if (error || !value) throw error ?? new Error("calendar could not be built");
   return value;
 }
+
+/** Gives the worker a new calendar token (the old link stops working); false when no such worker. */
+export async function setCalendarToken(trx: Knex | Knex.Transaction, organisationId: number, workerId: number, token: string): Promise<boolean> {
+  const n = await trx("workers").where({ id: workerId, organisation_id: organisationId }).update({ calendar_token: token, updated_at: new Date() });
+  return n > 0;
+}

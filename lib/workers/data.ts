@@ -142,3 +142,29 @@ export async function updateWorker(db: Knex, actor: Actor, id: number, patch: Wo
     throw duplicateNumber(err, fields.employeeNo);
   }
 }
+
+/** Active workers as choices for a form (a user's linked worker), by name. */
+export async function activeWorkerChoices(db: Knex, organisationId: number) {
+  return db("workers")
+    .where({ organisation_id: organisationId, active: true })
+    .orderBy(["last_name", "first_name"])
+    .select("id", "employee_no", "first_name", "last_name") as Promise<{ id: number; employee_no: string; first_name: string; last_name: string }[]>;
+}
+
+/** Active workers with a phone number, with their yard, for the phone simulator. */
+export async function workersWithPhones(db: Knex, organisationId: number) {
+  return db("workers as w")
+    .join("yards as y", "y.id", "w.yard_id")
+    .where({ "w.organisation_id": organisationId, "w.active": true })
+    .whereNotNull("w.phone_e164")
+    .orderBy(["y.code", "w.last_name", "w.first_name"])
+    .select("w.id", "w.first_name", "w.last_name", "w.phone_e164", "w.sms_opt_in", "y.code as yard_code", "y.timezone") as Promise<
+    { id: number; first_name: string; last_name: string; phone_e164: string; sms_opt_in: number | boolean; yard_code: string; timezone: string }[]
+  >;
+}
+
+/** The id of the organisation's worker with this phone (E.164), or null. */
+export async function workerIdByPhone(db: Knex, organisationId: number, phoneE164: string): Promise<number | null> {
+  const w = await db("workers").where({ organisation_id: organisationId, phone_e164: phoneE164 }).first("id");
+  return w ? Number(w.id) : null;
+}

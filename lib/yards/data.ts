@@ -35,3 +35,15 @@ export async function pickYard(db: Knex, organisationId: number, code?: string |
     yards[0];
   return { yard: yard ?? null, yards };
 }
+
+/** Yards as choices for a form (id, code, name), by name. */
+export async function yardChoices(db: Knex, organisationId: number): Promise<{ id: number; code: string; name: string }[]> {
+  const rows = await db("yards").where({ organisation_id: organisationId }).orderBy("name").select("id", "code", "name");
+  return rows.map((y) => ({ id: Number(y.id), code: String(y.code), name: String(y.name) }));
+}
+
+/** The organisation's first yard (by id): its clock is the one organisation-wide pages show. */
+export async function firstYard(db: Knex, organisationId: number): Promise<{ timezone: string; name: string } | null> {
+  const y = await db("yards").where({ organisation_id: organisationId }).orderBy("id").first("timezone", "name");
+  return y ? { timezone: String(y.timezone), name: String(y.name) } : null;
+}

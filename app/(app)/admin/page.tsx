@@ -4,6 +4,7 @@ import { db } from "@/lib/db";
 import { PageHeader } from "@/components/status";
 import { ROLE_LABEL, type Role } from "@/lib/users/roles";
 import { getPolicy } from "@/lib/policies/data";
+import { listUserSummaries } from "@/lib/users/data";
 import { PolicyForm } from "./policy-form";
 
 export const metadata = { title: "Admin" };
@@ -11,7 +12,7 @@ export const metadata = { title: "Admin" };
 export default async function AdminPage() {
   const user = await requirePageRole("admin");
   const [users, policy] = await Promise.all([
-    db()("users").where({ organisation_id: user.organisationId }).orderBy(["role", "name"]).select("id", "name", "email", "role", "active"),
+    listUserSummaries(db(), user.organisationId),
     getPolicy(db(), user.organisationId),
   ]);
   return (

@@ -1,7 +1,9 @@
 import { requirePageRole } from "@/lib/auth/session";
 import { SelectField, TextField } from "@/components/form/fields";
 import { db } from "@/lib/db";
-import { listAudit } from "@/lib/audit/data";
+import { auditFilterChoices, listAudit } from "@/lib/audit/data";
+import { orderIdByNumber, orderNumbers } from "@/lib/orders/data";
+import { firstYard } from "@/lib/yards/data";
 import { PageHeader } from "@/components/status";
 import { fmtDateTimeZone } from "@/lib/format";
 import { actionLabel, auditSentence } from "@/lib/audit/model";
@@ -27,7 +29,7 @@ export default async function AuditPage({
   const order = sp.order?.trim().slice(0, 40) || undefined;
   const fromDay = DAY.test(sp.from ?? "") ? sp.from : undefined;
   const toDay = DAY.test(sp.to ?? "") ? sp.to : undefined;
-  const yard = await db()("yards").where({ organisation_id: user.organisationId }).orderBy("id").first("timezone", "name");
+  const yard = await firstYard(db(), user.organisationId);
   const tz: string = yard?.timezone ?? "UTC";
   const safeEpoch = (day: string | undefined) => {
     if (!day) return undefined;
@@ -47,23 +49,14 @@ export default async function AuditPage({
     limit: order ? 1000 : 300,
   });
   // An order's rows: its own (work_order id) and those whose detail names its number.
-  let orderId: number | null = null;
-  if (order) {
-    const o = await db()("work_orders").where({ organisation_id: user.organisationId, number: order }).first("id");
-    orderId = o ? Number(o.id) : null;
-  }
+  const orderId = order ? await orderIdByNumber(db(), user.organisationId, order) : null;
   const rows = order
     ? rowsAll.filter((r: Record<string, any>) => (r.entity === "work_order" && orderId !== null && Number(r.entity_id) === orderId) || JSON.stringify(r.detail ?? "").includes(order))
     : rowsAll;
   const orderIds = [...new Set(rows.filter((r: Record<string, any>) => r.entity === "work_order" && r.entity_id).map((r: Record<string, any>) => Number(r.entity_id)))];
-  const numbers = new Map<number, string>(
-    orderIds.length
-      ? (await db()("work_orders").where({ organisation_id: user.organisationId }).whereIn("id", orderIds).select("id", "number")).map((o: { id: number; number: string }) => [Number(o.id), o.number])
-      : [],
-  );
-  const [actions, people] = await Promise.all([
-    db()("audit_log").where({ organisation_id: user.organisationId }).distinct("action").orderBy("action"),
-    db()("users").where({ organisation_id: user.organisationId }).orderBy("name").select("id", "name"),
+  const [numbers, { actions, people }] = await Promise.all([
+    orderNumbers(db(), user.organisationId, orderIds),
+    auditFilterChoices(db(), user.organisationId),
   ]);
   return (
     <>

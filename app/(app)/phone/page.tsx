@@ -2,6 +2,7 @@ import { notFound } from "next/navigation";
 import { requirePageRole } from "@/lib/auth/session";
 import { db } from "@/lib/db";
 import { fakesEnabled } from "@/lib/notify/config";
+import { workersWithPhones } from "@/lib/workers/data";
 import { formatPhone } from "@/lib/notify/messages";
 import { PageHeader } from "@/components/status";
 import { PhoneClient, type PhoneOwner } from "./phone-client";
@@ -14,12 +15,7 @@ export default async function PhonePage({ searchParams }: { searchParams: Promis
   const user = await requirePageRole("dispatcher", "supervisor", "admin");
   if (!fakesEnabled()) notFound();
   const sp = await searchParams;
-  const rows = await db()("workers as w")
-    .join("yards as y", "y.id", "w.yard_id")
-    .where({ "w.organisation_id": user.organisationId, "w.active": true })
-    .whereNotNull("w.phone_e164")
-    .orderBy(["y.code", "w.last_name", "w.first_name"])
-    .select("w.id", "w.first_name", "w.last_name", "w.phone_e164", "w.sms_opt_in", "y.code as yard_code", "y.timezone");
+  const rows = await workersWithPhones(db(), user.organisationId);
   const owners: PhoneOwner[] = rows.map((r) => ({
     workerId: r.id,
     name: `${r.first_name} ${r.last_name}`,

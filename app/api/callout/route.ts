@@ -5,6 +5,7 @@ import { requireRole } from "@/lib/auth/session";
 import { CAN_DISPATCH } from "@/lib/users/roles";
 import { createAssignment, findingsAfter } from "@/lib/assignments/data";
 import { listYards } from "@/lib/yards/data";
+import { seatWithOrder, unsentPlacements } from "@/lib/assignments/data-call-list";
 import { calloutList } from "@/lib/fill/callout";
 import { loadFillProblem } from "@/lib/fill/load";
 import { sendCrews } from "@/lib/assignments/data-send";
@@ -16,10 +17,7 @@ export const dynamic = "force-dynamic";
 const CALLOUT_STATUSES = new Set(["draft", "planned", "sent", "in_progress", "on_hold"]);
 
 async function seatContext(organisationId: number, positionId: number) {
-  const seat = await db()("positions as p")
-    .join("work_orders as o", "o.id", "p.work_order_id")
-    .where("p.id", positionId)
-    .first("p.id", "p.position", "o.id as order_id", "o.organisation_id", "o.yard_id", "o.work_date", "o.status", "o.number");
+  const seat = await seatWithOrder(db(), positionId);
   if (!seat || seat.organisation_id !== organisationId) throw new ApiError(404, "No such position.");
   const yard = (await listYards(db(), organisationId)).find((y) => y.id === seat.yard_id);
   if (!yard) throw new ApiError(404, "No such position.");
@@ -72,16 +70,7 @@ export const POST = handler(async (req) => {
   const recheck = await findingsAfter(db(), user.organisationId, placed.orderIds, placed.workerIds);
   let text: { queued: boolean; messages?: number; reason?: string } = { queued: false, reason: "Not asked to text: use Send crews." };
   if (input.text) {
-    const waiting = await db()("assignments as a")
-      .join("work_orders as o", "o.id", "a.work_order_id")
-      .where({ "o.organisation_id": user.organisationId, "o.yard_id": yard.id, "o.work_date": seat.work_date })
-      .whereNot("o.status", "cancelled")
-      .whereNotNull("a.holds_position")
-      .where("a.status", "draft")
-      .whereNot("a.id", placed.assignmentId ?? 0)
-      .count({ n: "*" })
-      .first();
-    const others = Number(waiting?.n ?? 0);
+    const others = await unsentPlacements(db(), user.organisationId, yard.id, seat.work_date, placed.assignmentId ?? null);
     if (others > 0) {
       text = { queued: false, reason: `${others} other placement${others > 1 ? "s" : ""} on this day ${others > 1 ? "are" : "is"} not sent yet; Send crews tells everyone together.` };
     } else {

@@ -2,6 +2,7 @@ import { db } from "@/lib/db";
 import { ApiError, handler, json } from "@/lib/api/http";
 import { requireRole } from "@/lib/auth/session";
 import { readUploadForm, storeUpload } from "@/lib/files/data";
+import { getWorker } from "@/lib/workers/data";
 
 // POST multipart/form-data: `file` (PDF, JPEG or PNG, up to 10 MB) and `workerId` (whose
 // evidence it is). hr and admin for any worker; a lineworker for their own record only.
@@ -19,7 +20,7 @@ export const POST = handler(async (req) => {
     if (workerId !== null && workerId !== user.workerId) throw new ApiError(403, "You can only upload your own evidence.");
     workerId = user.workerId;
   } else if (workerId !== null) {
-    const w = await db()("workers").where({ id: workerId, organisation_id: user.organisationId }).first("id");
+    const w = await getWorker(db(), user.organisationId, workerId);
     if (!w) throw new ApiError(422, "workerId: no such worker", { issues: [{ field: "workerId", message: "No such worker" }] });
   }
   const bytes = new Uint8Array(await file.arrayBuffer());

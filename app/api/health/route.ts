@@ -1,4 +1,4 @@
-import { db, dbStats, isDbUnavailable } from "@/lib/db";
+import { answeringPort, dbStats, isDbUnavailable } from "@/lib/db";
 import { errorResponse, json } from "@/lib/api/http";
 
 export const dynamic = "force-dynamic";
@@ -13,8 +13,8 @@ export async function GET(req: Request) {
     return { failovers, conflictRetries, conflictsGivenUp, statementTimeouts, nodeFailures };
   };
   try {
-    const [rows] = (await db().raw("select @@port as port")) as unknown as [{ port: number }[]];
-    return json(withStats ? { db: "ok", port: Number(rows[0]?.port), ...counters() } : { db: "ok" });
+    const port = await answeringPort();
+    return json(withStats ? { db: "ok", port, ...counters() } : { db: "ok" });
   } catch (err) {
     if (isDbUnavailable(err)) return json({ db: "down", error: "The database is not reachable.", ...(withStats ? counters() : {}) }, 503);
     return errorResponse(err);

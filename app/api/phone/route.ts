@@ -6,6 +6,8 @@ import { requireRole, type SessionUser } from "@/lib/auth/session";
 import { yardScope } from "@/lib/auth/yard-scope";
 import { fakesEnabled, inboundWebhookUrl, smsFakeBase } from "@/lib/notify/config";
 import { phoneQuerySchema, phoneReplySchema } from "@/lib/notify/schema";
+import { inboundBySid } from "@/lib/inbox/data";
+import { workerIdByPhone } from "@/lib/workers/data";
 
 export const dynamic = "force-dynamic";
 
@@ -26,10 +28,10 @@ async function fake(path: string, init?: RequestInit) {
 }
 
 async function ownPhone(user: SessionUser, phone: string) {
-  const w = await db()("workers").where({ organisation_id: user.organisationId, phone_e164: phone }).first("id");
-  if (!w) throw new ApiError(404, "No worker in your organisation has that phone number.");
+  const workerId = await workerIdByPhone(db(), user.organisationId, phone);
+  if (workerId === null) throw new ApiError(404, "No worker in your organisation has that phone number.");
   // A phone's texts are contact details: only for the worker's own yard's dispatchers.
-  await yardScope(user, "contact", { workerId: Number(w.id) });
+  await yardScope(user, "contact", { workerId });
 }
 
 export const GET = handler(async (req) => {
@@ -55,7 +57,7 @@ export const POST = handler(async (req) => {
   });
   // The webhook handled it like any text (its own audit rows have no user); this row says it
   // came from the simulator and who typed it (issue 15, finding 11).
-  const inbound = await db()("inbound_messages").where({ provider_sid: messageSid }).first("id", "worker_id", "outcome");
+  const inbound = await inboundBySid(db(), messageSid);
   await audit(db(), user, user.organisationId, "phone.simulated_reply", "inbound_message", inbound ? Number(inbound.id) : null, {
     from: input.from,
     body: input.body.slice(0, 200),

@@ -3,6 +3,8 @@ import { requirePageRole } from "@/lib/auth/session";
 import { db } from "@/lib/db";
 import { PageHeader } from "@/components/status";
 import { listUsers } from "@/lib/users/data";
+import { activeWorkerChoices } from "@/lib/workers/data";
+import { yardChoices } from "@/lib/yards/data";
 import { UsersClient } from "./users-client";
 
 export const metadata = { title: "Users" };
@@ -14,8 +16,8 @@ export default async function UsersPage() {
   const user = await requirePageRole("admin");
   const [users, yards, workers] = await Promise.all([
     listUsers(db(), user.organisationId),
-    db()("yards").where({ organisation_id: user.organisationId }).orderBy("name").select("id", "code", "name"),
-    db()("workers").where({ organisation_id: user.organisationId, active: true }).orderBy(["last_name", "first_name"]).select("id", "employee_no", "first_name", "last_name"),
+    yardChoices(db(), user.organisationId),
+    activeWorkerChoices(db(), user.organisationId),
   ]);
   return (
     <>

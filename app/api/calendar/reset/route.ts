@@ -2,7 +2,7 @@ import { db } from "@/lib/db";
 import { ApiError, handler, json, readJson } from "@/lib/api/http";
 import { requireRole } from "@/lib/auth/session";
 import { audit } from "@/lib/audit/data";
-import { calendarUrlFor, newCalendarToken } from "@/lib/workers/data-calendar";
+import { calendarUrlFor, newCalendarToken, setCalendarToken } from "@/lib/workers/data-calendar";
 import { calendarResetSchema } from "@/lib/time-records/model";
 
 // POST: a lineworker makes a new link for themself; hr and admin for anyone (workerId).
@@ -19,8 +19,7 @@ export const POST = handler(async (req) => {
   if (!workerId) throw new ApiError(422, "Name the worker.", { issues: [{ field: "workerId", message: "Name the worker." }] });
   const token = newCalendarToken();
   await db().transaction(async (trx) => {
-    const n = await trx("workers").where({ id: workerId, organisation_id: user.organisationId }).update({ calendar_token: token, updated_at: new Date() });
-    if (!n) throw new ApiError(404, "No such worker.");
+    if (!(await setCalendarToken(trx, user.organisationId, workerId!, token))) throw new ApiError(404, "No such worker.");
     // The token itself is a secret: the audit row says that it changed, not what to.
     await audit(trx, user, user.organisationId, "calendar.reset", "worker", workerId!, {});
   });

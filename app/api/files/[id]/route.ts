@@ -2,7 +2,7 @@ import { db } from "@/lib/db";
 import { ApiError, handler } from "@/lib/api/http";
 import { idParam } from "@/lib/api/ids";
 import { requireRole } from "@/lib/auth/session";
-import { contentDisposition, readBlob } from "@/lib/files/data";
+import { contentDisposition, fileRow, readBlob } from "@/lib/files/data";
 
 type P = { id: string };
 
@@ -11,7 +11,7 @@ type P = { id: string };
 export const GET = handler<P>(async (_req, ctx) => {
   const user = await requireRole("hr", "supervisor", "admin", "lineworker");
   const id = idParam((await ctx.params).id, "file");
-  const row = await db()("files").where({ id, organisation_id: user.organisationId }).first();
+  const row = await fileRow(db(), user.organisationId, id);
   if (!row) throw new ApiError(404, "No such file.");
   if (user.role === "lineworker" && (row.worker_id === null || Number(row.worker_id) !== user.workerId)) {
     throw new ApiError(403, "You can only open your own evidence.");

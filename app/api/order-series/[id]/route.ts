@@ -4,7 +4,7 @@ import { ApiError, handler, json, readJson } from "@/lib/api/http";
 import { yardScope } from "@/lib/auth/yard-scope";
 import { requireRole } from "@/lib/auth/session";
 import { listOrders, parseJson, seriesView } from "@/lib/orders/data";
-import { endSeries, updateSeries } from "@/lib/orders/data-series";
+import { endSeries, seriesWithOrderIds, updateSeries } from "@/lib/orders/data-series";
 import { seriesEditSchema } from "@/lib/orders/schema";
 
 type Params = { id: string };
@@ -15,9 +15,9 @@ const idOf = async (ctx: { params: Promise<Params> }) => idParam((await ctx.para
 export const GET = handler<Params>(async (_req, ctx) => {
   const user = await requireRole("dispatcher", "supervisor", "admin");
   const id = await idOf(ctx);
-  const s = await db()("order_series").where({ id, organisation_id: user.organisationId }).first();
-  if (!s) throw new ApiError(404, "No such series.");
-  const orderIds = await db()("work_orders").where({ series_id: id }).pluck("id");
+  const found = await seriesWithOrderIds(db(), user.organisationId, id);
+  if (!found) throw new ApiError(404, "No such series.");
+  const { series: s, orderIds } = found;
   const occurrences = orderIds.length ? await listOrders(db(), user.organisationId, { ids: orderIds, limit: 1000 }) : [];
   return json({ ...seriesView(s), template: parseJson(s.template, {}), yardId: Number(s.yard_id), occurrences });
 });

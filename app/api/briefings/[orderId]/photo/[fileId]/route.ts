@@ -3,7 +3,7 @@ import { ApiError, handler } from "@/lib/api/http";
 import { idParam } from "@/lib/api/ids";
 import { requireRole } from "@/lib/auth/session";
 import { briefingPhotoIds, loadBriefing, modeFor } from "@/lib/briefings/data";
-import { contentDisposition, readBlob } from "@/lib/files/data";
+import { contentDisposition, fileRow, readBlob } from "@/lib/files/data";
 
 type P = { orderId: string; fileId: string };
 
@@ -19,7 +19,7 @@ export const GET = handler<P>(async (_req, ctx) => {
   modeFor(user, view);
   if (!(await briefingPhotoIds(db(), orderId)).has(fileId)) throw new ApiError(404, "No such photo on this briefing.");
   // Only a photo taken for this order's briefing (files.kind, files.work_order_id).
-  const row = await db()("files").where({ id: fileId, organisation_id: user.organisationId, kind: "briefing_photo", work_order_id: orderId }).first();
+  const row = await fileRow(db(), user.organisationId, fileId, { kind: "briefing_photo", workOrderId: orderId });
   if (!row) throw new ApiError(404, "No such photo.");
   const bytes = await readBlob(row.sha256);
   if (!bytes) throw new ApiError(404, "The stored photo is missing.");
