@@ -507,9 +507,10 @@ function holdMessages(order: OrderFacts, briefingId: number, round: number, reas
     // At most two GSM-7 segments (306 characters): the reason is shortened, the link never.
     const head = toGsm7(`Gaffline HOLD ${order.number}, ${pole}${order.address ? `, ${order.address}` : ""}: `);
     const tail = toGsm7(` Lead ${leadName}. Nobody climbs. ${link}`);
-    const room = Math.max(40, 300 - head.length - tail.length);
+    // toGsm7 trims each piece, so the spaces between them are put back here.
+    const room = Math.max(40, 300 - head.length - tail.length - 2);
     const why = toGsm7(reason);
-    const sms = `${head}${why.length > room ? `${why.slice(0, room - 3)}...` : why}${tail}`;
+    const sms = `${head} ${why.length > room ? `${why.slice(0, room - 3)}...` : why} ${tail}`;
     rows.push({
       organisationId: order.organisationId,
       channel: "sms",
