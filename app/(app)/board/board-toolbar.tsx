@@ -76,6 +76,8 @@ export function BoardToolbar(props: {
   );
 }
 
+const plural = (n: number, word: string) => `${n} ${word}${n === 1 ? "" : "s"}`;
+
 export function DaySummary({ data, unresolved, warnCount, live, isFetching }: { data: BoardPayload; unresolved: number; warnCount: number; live: LiveMode; isFetching: boolean }) {
   return (
     <div className="mb-4 flex flex-wrap items-center gap-2 text-sm" data-testid="day-summary">
@@ -88,7 +90,7 @@ export function DaySummary({ data, unresolved, warnCount, live, isFetching }: { 
       )}
       {warnCount > 0 && <Badge tone="warn">{warnCount} warning{warnCount === 1 ? "" : "s"}</Badge>}
       <span className="text-ink-500">
-        {data.orders.length} orders · {data.orders.reduce((n, o) => n + o.seats.filter((s) => !s.assignment).length, 0)} open positions
+        {plural(data.orders.length, "order")} · {plural(data.orders.reduce((n, o) => n + o.seats.filter((s) => !s.assignment).length, 0), "open position")}
       </span>
       <span className="text-xs text-ink-500" data-testid="live-status" data-mode={live}>
         · {live === "stream" ? "live" : live === "polling" ? "checking every 2 s" : "connecting…"}
