@@ -8,7 +8,7 @@
 // the test. After recovery every text and every e-mail arrives exactly once, counted at the fakes.
 import { afterAll, afterEach, beforeAll, describe, expect, it } from "vitest";
 import { as, type Client } from "../support/client";
-import { fakeMails, fakeTexts, mailControl, makeCrewDay, removeMade, sleep, smsControl, testDb, waitFor } from "../support/notify";
+import { fakeMails, fakeTexts, mailControl, makeCrewDay, removeMade, smsControl, testDb, waitFor } from "../support/notify";
 
 const FULL = process.env.GAFFLINE_FULL === "1";
 const DOWN_S = FULL ? 30 : 5;
@@ -84,7 +84,13 @@ describe("Send crews through a provider failure and outage", () => {
       for (const r of rows.filter((x: { channel: string }) => x.channel === "sms")) expect(r.attempts).toBeGreaterThanOrEqual(3);
       for (const r of rows.filter((x: { channel: string }) => x.channel === "email")) expect(r.attempts).toBeGreaterThanOrEqual(2);
 
-      await sleep(2_000); // a duplicate would have arrived by now
+      // No fixed wait: every row is settled (sent), and lib/notify/outbox.ts only sends rows that
+      // are queued or sending, so no duplicate can still come; wait for the fakes to list them all.
+      await waitFor("6 texts and 6 mails at the fakes", async () => {
+        const t = (await fakeTexts()).filter((m) => m.source === "api" && numbers.some((n) => m.body.includes(n))).length;
+        const m = (await fakeMails()).filter((x) => numbers.some((n) => x.subject.includes(n))).length;
+        return t >= 6 && m >= 6;
+      });
       const texts = (await fakeTexts()).filter((m) => m.source === "api" && numbers.some((n) => m.body.includes(n)));
       const mails = (await fakeMails()).filter((m) => numbers.some((n) => m.subject.includes(n)));
       for (const p of people) {

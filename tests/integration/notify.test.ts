@@ -112,7 +112,13 @@ describe("Send crews", () => {
 
     await delivered(d);
     await waitFor("3 texts and 3 mails at the fakes", async () => (await textsAbout(d.number)).length >= 3 && (await mailsAbout(d.number)).length >= 3);
-    await sleep(1500); // anything sent twice would have arrived by now
+    // No fixed wait: a notification is only ever sent again while its row is queued or sending
+    // (lib/notify/outbox.ts claims rows in those states only), so once every row of the order is
+    // settled nothing more can arrive, and a provider call completes before its row says sent.
+    await waitFor("every notification of the order settled", async () => {
+      const left = await db("notifications").whereIn("assignment_id", d.assignments.map((a) => a.id)).whereIn("state", ["queued", "sending"]).count({ n: "*" }).first();
+      return Number(left?.n) === 0;
+    });
     const texts = countBy(await textsAbout(d.number), (m) => m.to);
     const mails = countBy(await mailsAbout(d.number), (m) => m.to[0]);
     for (const a of d.assignments) {
@@ -222,8 +228,12 @@ describe("Delivery", () => {
     const [row] = await drainUntil([id], 40_000);
     expect(row.state).toBe("sent");
     expect(row.attempts).toBe(3); // two 500s, then accepted
-    await sleep(500);
-    expect((await fakeTexts()).filter((m) => m.body.includes(`test fail500 [t ${run}`))).toHaveLength(1);
+    // The row is settled (sent): no further send can come; wait for the text to be listed.
+    const got = await waitFor("the text at the fake", async () => {
+      const t = (await fakeTexts()).filter((m) => m.body.includes(`test fail500 [t ${run}`));
+      return t.length > 0 && t;
+    });
+    expect(got).toHaveLength(1);
   });
 
   it(
@@ -239,7 +249,12 @@ describe("Delivery", () => {
       expect(rows.every((r: { state: string }) => r.state === "sent")).toBe(true);
       expect(Date.now() - started).toBeGreaterThanOrEqual(seconds * 1000 - 500);
       expect(rows.every((r: { attempts: number }) => r.attempts >= 2)).toBe(true);
-      await sleep(500);
+      // Both rows are settled (sent): wait for the fakes to list them, then count.
+      await waitFor("the text and the mail at the fakes", async () => {
+        const t = (await fakeTexts()).filter((m) => m.body.includes(`test down [t ${run}`)).length;
+        const m = (await fakeMails()).filter((x) => x.subject.includes(`test down [t ${run}`)).length;
+        return t > 0 && m > 0;
+      });
       expect((await fakeTexts()).filter((m) => m.body.includes(`test down [t ${run}`))).toHaveLength(1);
       expect((await fakeMails()).filter((m) => m.subject.includes(`test down [t ${run}`))).toHaveLength(1);
     },
@@ -278,7 +293,12 @@ describe("Delivery", () => {
     }
     const states = await db("notifications").whereIn("id", ids).pluck("state");
     expect(states.filter((s: string) => s === "sent")).toHaveLength(160);
-    await sleep(500);
+    // All 160 rows are settled: wait until the fakes list every distinct message, then count.
+    await waitFor("all 160 messages at the fakes", async () => {
+      const t = new Set((await fakeTexts()).filter((m) => m.body.includes(tag)).map((m) => m.body)).size;
+      const m = new Set((await fakeMails()).filter((x) => x.subject.includes(tag)).map((x) => x.subject)).size;
+      return t === 120 && m === 40;
+    });
     const texts = countBy((await fakeTexts()).filter((m) => m.body.includes(tag)), (m) => m.body);
     const mails = countBy((await fakeMails()).filter((m) => m.subject.includes(tag)), (m) => m.subject);
     expect(texts.size).toBe(120);
@@ -315,7 +335,8 @@ describe("Delivery", () => {
     expect(byId.get(accepted)).toMatchObject({ state: "sent" });
     expect((await db("notifications").where({ id: accepted }).first()).provider_id).toBe(sid);
     expect(byId.get(notSent)).toMatchObject({ state: "sent" });
-    await sleep(500);
+    // Both rows are settled: wait for the one text that crash-before still owed, then count.
+    await waitFor("the owed text at the fake", async () => (await fakeTexts()).some((m) => m.body.includes(`test crash-before [t ${run}`)));
     expect((await fakeTexts()).filter((m) => m.body.includes(`test crash-after [t ${run}`))).toHaveLength(1);
     expect((await fakeTexts()).filter((m) => m.body.includes(`test crash-before [t ${run}`))).toHaveLength(1);
   });
