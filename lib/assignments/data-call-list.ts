@@ -1,5 +1,5 @@
 import "@/lib/server-only";
-// The call list's reads (GET/POST /api/callout): the seat someone is rung for, and whether a
+// The call list's reads (GET/POST /api/call-list): the seat someone is rung for, and whether a
 // day has other placements not sent yet (then Send crews tells everyone together).
 import type { Knex } from "knex";
 

@@ -63,8 +63,8 @@ describe("POST /api/fill (preview)", () => {
       const c = await as(role);
       expect((await c.json("/api/fill", "POST", body)).status).toBe(403);
       expect((await c.json("/api/fill/accept", "POST", { ...body, proposals: [{ positionId: 1, workerId: 1 }] })).status).toBe(403);
-      expect((await c.json("/api/callout?positionId=1")).status).toBe(403);
-      expect((await c.json("/api/callout", "POST", { positionId: 1, workerId: 1 })).status).toBe(403);
+      expect((await c.json("/api/call-list?positionId=1")).status).toBe(403);
+      expect((await c.json("/api/call-list", "POST", { positionId: 1, workerId: 1 })).status).toBe(403);
     }
     expect((await new Client().json("/api/fill", "POST", body)).status).toBe(401);
   });
@@ -136,7 +136,7 @@ describe("call-out list", () => {
   it("ranks the eligible by overtime then home yard, lists near misses with the rule, and places in one click", async () => {
     const o = await makeOrder(db, { offsetDays: 175, workType: "pole_climb", positions: ["climber"] });
     const c = await as("dispatcher");
-    const r = await c.json(`/api/callout?positionId=${o.positionIds.climber}`);
+    const r = await c.json(`/api/call-list?positionId=${o.positionIds.climber}`);
     expect(r.status).toBe(200);
     expect(r.body.eligible.length).toBeGreaterThan(0);
     // Fewer blocks left on the order first; among equals fewest overtime hours, then home yard
@@ -156,7 +156,7 @@ describe("call-out list", () => {
     expect(r.body.summary).toMatch(/lapsed climbing qualification/);
 
     const first = r.body.eligible[0];
-    const placed = await c.json("/api/callout", "POST", { positionId: o.positionIds.climber, workerId: first.workerId, text: false });
+    const placed = await c.json("/api/call-list", "POST", { positionId: o.positionIds.climber, workerId: first.workerId, text: false });
     expect(placed.status).toBe(201);
     const row = await db("assignments").where({ id: placed.body.assignmentId }).first();
     expect(row.worker_id).toBe(first.workerId);
@@ -166,8 +166,8 @@ describe("call-out list", () => {
 
   it("404 for an unknown position, 422 for a bad one", async () => {
     const c = await as("dispatcher");
-    expect((await c.json("/api/callout?positionId=999999999")).status).toBe(404);
-    const bad = await c.json("/api/callout?positionId=abc");
+    expect((await c.json("/api/call-list?positionId=999999999")).status).toBe(404);
+    const bad = await c.json("/api/call-list?positionId=abc");
     expect(bad.status).toBe(422);
     expect(bad.body.issues[0].field).toBe("positionId");
   });

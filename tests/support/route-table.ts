@@ -392,21 +392,21 @@ export const ROUTES: RouteEntry[] = [
   },
   {
     method: "GET",
-    route: "/api/callout",
+    route: "/api/call-list",
     yard: "edit",
     roles: D,
     status: 200,
     fuzz: "query",
-    sample: async (fx) => ({ path: `/api/callout?positionId=${(await fx.seat()).positionIds.lead}` }),
+    sample: async (fx) => ({ path: `/api/call-list?positionId=${(await fx.seat()).positionIds.lead}` }),
   },
   {
     method: "POST",
-    route: "/api/callout",
+    route: "/api/call-list",
     roles: D,
     status: 201,
     audit: true,
     fuzz: "json",
-    sample: async (fx) => ({ path: "/api/callout", body: { positionId: (await fx.seat()).positionIds.lead, workerId: fx.other.workerId, text: false } }),
+    sample: async (fx) => ({ path: "/api/call-list", body: { positionId: (await fx.seat()).positionIds.lead, workerId: fx.other.workerId, text: false } }),
   },
   // --- briefings -----------------------------------------------------------------------------
   {

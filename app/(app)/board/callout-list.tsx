@@ -101,7 +101,7 @@ function CalloutPopover({
 
   useEffect(() => {
     let live = true;
-    call<CalloutPayload>(`/api/callout?positionId=${positionId}`)
+    call<CalloutPayload>(`/api/call-list?positionId=${positionId}`)
       .then((d) => live && setData(d))
       .catch((e) => live && setError(e instanceof HttpError ? e.message : "The call-out list could not be loaded."));
     return () => {
@@ -120,7 +120,7 @@ function CalloutPopover({
     setBusy(e.workerId);
     setDone(null);
     try {
-      const r = await call<PlaceResult>("/api/callout", { method: "POST", body: JSON.stringify({ positionId, workerId: e.workerId, text }) });
+      const r = await call<PlaceResult>("/api/call-list", { method: "POST", body: JSON.stringify({ positionId, workerId: e.workerId, text }) });
       const blocks = r.recheck.findings.filter((f) => f.level === "block" && f.workOrderId === String(data?.orderId));
       const textPart = text ? (r.text.queued ? `Text and e-mail queued (${r.text.messages}).` : `Not texted: ${r.text.reason}`) : "Text it with Send crews.";
       const msg = `${e.name} placed. ${textPart}${blocks.length ? ` The order still has ${blocks.length} block${blocks.length > 1 ? "s" : ""}.` : ""}`;
