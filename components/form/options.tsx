@@ -48,3 +48,16 @@ export function YardOptions({
     </>
   );
 }
+
+/** The <option>s of a fixed list: each value shown by its label (a record of labels, or a function). */
+export function LabelOptions<V extends string | number>({ values, labels }: { values: readonly V[]; labels: Partial<Record<V, string>> | ((v: V) => string) }) {
+  return (
+    <>
+      {values.map((v) => (
+        <option key={v} value={v}>
+          {typeof labels === "function" ? labels(v) : (labels[v] ?? String(v))}
+        </option>
+      ))}
+    </>
+  );
+}

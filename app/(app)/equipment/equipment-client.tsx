@@ -2,7 +2,7 @@
 
 import { useMemo, useState } from "react";
 import { SelectField } from "@/components/form/fields";
-import { YardOptions } from "@/components/form/options";
+import { LabelOptions, YardOptions } from "@/components/form/options";
 import { EQUIPMENT_KINDS, EQUIPMENT_KIND_LABEL, type Equipment } from "@/lib/equipment/model";
 import { EquipmentForm, type YardOpt } from "./equipment-form";
 import { EquipmentRow } from "./equipment-row";
@@ -47,11 +47,7 @@ export function EquipmentClient({
         </SelectField>
         <SelectField id="eqf-kind" label="Kind" className="field w-auto" value={kind} onChange={(e) => setKind(e.target.value)}>
           <option value="">All kinds</option>
-          {EQUIPMENT_KINDS.map((k) => (
-            <option key={k} value={k}>
-              {EQUIPMENT_KIND_LABEL[k]}
-            </option>
-          ))}
+          <LabelOptions values={EQUIPMENT_KINDS} labels={EQUIPMENT_KIND_LABEL} />
         </SelectField>
         <SelectField id="eqf-service" label="Service" className="field w-auto" value={service} onChange={(e) => setService(e.target.value as "" | "in" | "out")}>
           <option value="">In and out of service</option>

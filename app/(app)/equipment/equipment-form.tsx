@@ -2,7 +2,7 @@
 
 import { useForm } from "react-hook-form";
 import { CheckField, FormActions, FormError, SelectField, TextField } from "@/components/form/fields";
-import { YardOptions } from "@/components/form/options";
+import { LabelOptions, YardOptions } from "@/components/form/options";
 import { useApiMutation } from "@/lib/api/mutations";
 import { EQUIPMENT_KINDS, EQUIPMENT_KIND_LABEL, type Equipment, type EquipmentKind } from "@/lib/equipment/model";
 
@@ -71,11 +71,7 @@ export function EquipmentForm({ equipment: e, yards, homeYardCode, onClose }: { 
         <YardOptions yards={yards} by="id" />
       </SelectField>
       <SelectField id={id("kind")} label="Kind" error={err.kind?.message} {...register("kind")}>
-        {EQUIPMENT_KINDS.map((k) => (
-          <option key={k} value={k}>
-            {EQUIPMENT_KIND_LABEL[k]}
-          </option>
-        ))}
+        <LabelOptions values={EQUIPMENT_KINDS} labels={EQUIPMENT_KIND_LABEL} />
       </SelectField>
       <SelectField id={id("licence")} label="Driver licence needed" error={err.licence?.message} {...register("licence")}>
         <option value="">None</option>

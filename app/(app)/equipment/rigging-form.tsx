@@ -2,6 +2,7 @@
 
 import { useForm } from "react-hook-form";
 import { FormActions, FormError, SelectField, TextField } from "@/components/form/fields";
+import { LabelOptions } from "@/components/form/options";
 import { useApiMutation } from "@/lib/api/mutations";
 import { RIGGING_KINDS, RIGGING_KIND_LABEL, type RiggingKind } from "@/lib/equipment/model";
 
@@ -32,11 +33,7 @@ export function RiggingForm({ equipmentId, unit, onClose }: { equipmentId: numbe
   return (
     <form className="mt-2 grid gap-2 rounded-md border border-rule p-2 text-xs sm:grid-cols-3" aria-label={`Add rigging to ${unit}`} onSubmit={form.handleSubmit(save.submit)} noValidate>
       <SelectField id={id("kind")} label="Kind" error={e.kind?.message} {...register("kind")}>
-        {RIGGING_KINDS.map((k) => (
-          <option key={k} value={k}>
-            {RIGGING_KIND_LABEL[k]}
-          </option>
-        ))}
+        <LabelOptions values={RIGGING_KINDS} labels={RIGGING_KIND_LABEL} />
       </SelectField>
       <TextField id={id("label")} wrapperClassName="sm:col-span-2" label="Label" error={e.label?.message} {...register("label")} />
       {kind === "rope_block" && (

@@ -1,5 +1,9 @@
 import Link from "next/link";
 import { SelectField, TextField } from "@/components/form/fields";
+import { LabelOptions } from "@/components/form/options";
+
+const CHANNEL = { "": "All", sms: "Texts out", email: "E-mails out", inbound: "Text replies in" };
+const STATE = { "": "Any", queued: "Queued", sending: "Sending", sent: "Sent", failed: "Failed" };
 
 /** The GET filter form: channel, state, worker, day. */
 export function MessageFilters({
@@ -14,17 +18,10 @@ export function MessageFilters({
   return (
     <form method="get" className="card mb-4 grid grid-cols-2 gap-3 p-3 sm:flex sm:flex-wrap sm:items-end" aria-label="Filter messages">
       <SelectField name="channel" label="Channel" defaultValue={f.channel ?? ""}>
-        <option value="">All</option>
-        <option value="sms">Texts out</option>
-        <option value="email">E-mails out</option>
-        <option value="inbound">Text replies in</option>
+        <LabelOptions values={["", "sms", "email", "inbound"]} labels={CHANNEL} />
       </SelectField>
       <SelectField name="state" label="State" defaultValue={f.state ?? ""}>
-        <option value="">Any</option>
-        <option value="queued">Queued</option>
-        <option value="sending">Sending</option>
-        <option value="sent">Sent</option>
-        <option value="failed">Failed</option>
+        <LabelOptions values={["", "queued", "sending", "sent", "failed"]} labels={STATE} />
       </SelectField>
       <SelectField name="worker" wrapperClassName="col-span-2 sm:col-span-1" label="Worker" defaultValue={f.worker ? String(f.worker) : ""}>
         <option value="">Everyone</option>

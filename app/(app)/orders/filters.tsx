@@ -1,7 +1,7 @@
 // The orders list's and calendar's filter bar: a plain GET form, so it works before any script loads.
 import Link from "next/link";
 import { SelectField, TextField } from "@/components/form/fields";
-import { YardOptions } from "@/components/form/options";
+import { LabelOptions, YardOptions } from "@/components/form/options";
 import { ORDER_STATUSES, STATUS_LABEL } from "@/lib/orders/status";
 
 export interface FilterValues {
@@ -50,11 +50,7 @@ export function OrderFilters({
       <SelectField id="f-status" name="status" label="Status" defaultValue={values.status}>
         <option value="">Open (not done or cancelled)</option>
         <option value="all">Any status</option>
-        {ORDER_STATUSES.map((s) => (
-          <option key={s} value={s}>
-            {STATUS_LABEL[s]}
-          </option>
-        ))}
+        <LabelOptions values={ORDER_STATUSES} labels={STATUS_LABEL} />
       </SelectField>
       <SelectField id="f-type" name="workType" label="Work type" defaultValue={values.workType}>
         <option value="">All work types</option>

@@ -88,17 +88,7 @@ export function OrderForm({ mode, yards, workTypes, initial, seats = [], orderId
     <form onSubmit={form.handleSubmit(save.submit)} noValidate className="space-y-4">
       <fieldset disabled={readOnly} className="grid gap-4 lg:grid-cols-2">
         <WhatWhere form={form} mode={mode} yards={yards} workTypes={workTypes} fixedYardId={initial.yardId} onPickType={pickType} />
-        <WhenSection
-          form={form}
-          mode={mode}
-          yard={yard}
-          repeat={repeat}
-          setRepeat={setRepeat}
-          exdates={exdates}
-          setExdates={setExdates}
-          durationMinutes={duration}
-          today={today}
-        />
+        <WhenSection form={form} mode={mode} yard={yard} repeat={{ value: repeat, set: setRepeat, exdates, setExdates }} durationMinutes={duration} today={today} />
         <LinesSection form={form} type={type} />
         <CrewSection form={form} mode={mode} type={type} rows={rows} setRows={setRows} held={held} />
       </fieldset>

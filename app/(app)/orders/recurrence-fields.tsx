@@ -1,6 +1,7 @@
 "use client";
 
 import { FieldError, SelectField, TextField } from "@/components/form/fields";
+import { LabelOptions } from "@/components/form/options";
 import { NTH_LABEL, WEEKDAYS, WEEKDAY_LABEL, buildRrule, type RepeatForm, type WeekdayCode } from "@/lib/time/recurrence";
 import { RecurrencePreview } from "./recurrence-preview";
 
@@ -108,11 +109,7 @@ export function RecurrenceFields({ value, onChange, exdates, onExdatesChange, st
             ))}
           </SelectField>
           <SelectField id="repeat-weekday" label="Weekday" value={value.weekday} onChange={(e) => set({ weekday: e.target.value as WeekdayCode })}>
-            {WEEKDAYS.map((d) => (
-              <option key={d} value={d}>
-                {WEEKDAY_LABEL[d]}
-              </option>
-            ))}
+            <LabelOptions values={WEEKDAYS} labels={WEEKDAY_LABEL} />
           </SelectField>
           <span className="pb-2 text-sm text-ink-700">of the month</span>
         </div>

@@ -4,7 +4,7 @@ import { zodResolver } from "@hookform/resolvers/zod";
 import { useState } from "react";
 import { useForm } from "react-hook-form";
 import { CheckField, FormActions, FormAlert, SelectField, TextField } from "@/components/form/fields";
-import { YardOptions } from "@/components/form/options";
+import { LabelOptions, YardOptions } from "@/components/form/options";
 import { useApiMutation } from "@/lib/api/mutations";
 import { CLASSIFICATION_LABEL } from "@/lib/format";
 import type { WorkerRow } from "@/lib/workers/model";
@@ -86,11 +86,7 @@ export function WorkerForm({ worker, yards, onDone, onCancel }: Props) {
       <TextField id="wf-firstName" label="First name" autoComplete="off" error={e("firstName")} {...form.register("firstName")} />
       <TextField id="wf-lastName" label="Last name" autoComplete="off" error={e("lastName")} {...form.register("lastName")} />
       <SelectField id="wf-classification" label="Classification" error={e("classification")} {...form.register("classification")}>
-        {CLASSIFICATIONS.map((c) => (
-          <option key={c} value={c}>
-            {CLASSIFICATION_LABEL[c]}
-          </option>
-        ))}
+        <LabelOptions values={CLASSIFICATIONS} labels={CLASSIFICATION_LABEL} />
       </SelectField>
       <SelectField id="wf-yardId" label="Yard" error={e("yardId")} {...form.register("yardId")}>
         <YardOptions yards={yards} by="id" withCode />

@@ -35,12 +35,7 @@ export function CallOutForm({ workers, rotations, defaults }: Props) {
   const who = sent && workers.find((x) => x.id === Number(sent.workerId));
 
   return (
-    <form
-      onSubmit={form.handleSubmit(save.submit)}
-      noValidate
-      className="space-y-3"
-      aria-label="Record a call-out"
-    >
+    <form onSubmit={form.handleSubmit(save.submit)} noValidate className="space-y-3" aria-label="Record a call-out">
       <div className="grid gap-3 sm:grid-cols-2">
         <SelectField
           id="co-rotation"

@@ -4,7 +4,7 @@ import { zodResolver } from "@hookform/resolvers/zod";
 import { useMemo, useState } from "react";
 import { useForm } from "react-hook-form";
 import { CheckField, FieldError, FormAlert, SelectField, TextField } from "@/components/form/fields";
-import { YardOptions } from "@/components/form/options";
+import { LabelOptions, YardOptions } from "@/components/form/options";
 import { useApiMutation } from "@/lib/api/mutations";
 import { WEEKDAYS, WEEKDAY_LABEL, parseRrule, type WeekdayCode } from "@/lib/time/recurrence";
 import { schedule } from "@/lib/rotations/schedule";
@@ -120,11 +120,7 @@ export function RotationForm({ yards, workers, initial, rotationId, version, onD
               setValue("rrule", `FREQ=WEEKLY;BYDAY=${e.target.value}`);
             }}
           >
-            {WEEKDAYS.map((d) => (
-              <option key={d} value={d}>
-                {WEEKDAY_LABEL[d]}
-              </option>
-            ))}
+            <LabelOptions values={WEEKDAYS} labels={WEEKDAY_LABEL} />
           </SelectField>
         ) : (
           <TextField id={`r-rule-${key}`} label="RRULE (RFC 5545)" className="field font-mono" placeholder="FREQ=DAILY;BYHOUR=7,19" error={err("rrule")} {...register("rrule")} />

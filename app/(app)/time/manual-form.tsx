@@ -21,12 +21,7 @@ export function ManualForm({ workerId, defaults }: { workerId: number; defaults:
     onSuccess: (_r, values) => form.reset({ ...values, reason: "" }),
   });
   return (
-    <form
-      onSubmit={form.handleSubmit(save.submit)}
-      noValidate
-      className="space-y-3"
-      aria-label="Enter time by hand"
-    >
+    <form onSubmit={form.handleSubmit(save.submit)} noValidate className="space-y-3" aria-label="Enter time by hand">
       <input type="hidden" {...register("workerId", { setValueAs: Number })} />
       <div className="grid gap-3 sm:grid-cols-2 xl:grid-cols-1">
         <TextField id="tm-start" type="datetime-local" label="Start" error={errors.start?.message} {...register("start")} />

@@ -4,7 +4,7 @@ import { zodResolver } from "@hookform/resolvers/zod";
 import { useEffect, useState } from "react";
 import { useForm } from "react-hook-form";
 import { CheckField, FieldError, FormAlert, TextField } from "@/components/form/fields";
-import { PositionOptions } from "@/components/form/position-options";
+import { AddPosition, PositionOptions } from "@/components/form/position-options";
 import { useApiMutation } from "@/lib/api/mutations";
 import { POSITION_LABEL } from "@/lib/format";
 import type { WorkTypeView } from "@/lib/orders/model";
@@ -23,7 +23,6 @@ const RULE_LABEL: Record<string, string> = {
 /** One work type's crew template: default positions (exactly one lead) and minimum crew. */
 export function TemplateForm({ type }: { type: WorkTypeView }) {
   const [rows, setRows] = useState<Position[]>(type.positions);
-  const [add, setAdd] = useState<Position>("ground");
   const form = useForm<CrewTemplateInput>({
     resolver: zodResolver(crewTemplateSchema as never) as never,
     defaultValues: { name: type.name, minCrew: type.minCrew, digs: type.digs, positions: type.positions },
@@ -74,14 +73,7 @@ export function TemplateForm({ type }: { type: WorkTypeView }) {
             </li>
           ))}
         </ul>
-        <div className="mt-2 flex items-center gap-2">
-          <select aria-label="Position to add" className="field w-auto" value={add} onChange={(e) => setAdd(e.target.value as Position)}>
-            <PositionOptions />
-          </select>
-          <button type="button" className="btn-quiet" onClick={() => setRows([...rows, add])}>
-            Add position
-          </button>
-        </div>
+        <AddPosition onAdd={(p) => setRows([...rows, p])} />
         <FieldError msg={errors.positions?.message as string | undefined} />
         {leads !== 1 && !errors.positions && (
           <p className="mt-1 text-xs font-semibold text-warn">▲ Exactly one lead position is needed (the employee in charge, who holds the job briefing).</p>

@@ -2,6 +2,7 @@
 
 import { useForm } from "react-hook-form";
 import { ChoiceGroup, SelectField, TextField } from "@/components/form/fields";
+import { LabelOptions } from "@/components/form/options";
 import { ROLES, ROLE_LABEL, type Role } from "@/lib/users/roles";
 import type { IssueTarget } from "@/lib/api/client";
 
@@ -59,11 +60,7 @@ export function AddUserForm({
       <TextField id="new-name" label="Name" required error={errors.name?.message} {...register("name")} />
       <TextField id="new-email" label="E-mail" type="email" required error={errors.email?.message} {...register("email")} />
       <SelectField id="new-role" label="Role" error={errors.role?.message} {...register("role")}>
-        {ROLES.map((r) => (
-          <option key={r} value={r}>
-            {ROLE_LABEL[r]}
-          </option>
-        ))}
+        <LabelOptions values={ROLES} labels={ROLE_LABEL} />
       </SelectField>
       {role === "dispatcher" && (
         <ChoiceGroup legend="Yards they dispatch" error={errors.yardIds?.message}>

@@ -2,6 +2,7 @@
 
 import { useForm } from "react-hook-form";
 import { FormActions, FormError, SelectField, TextField } from "@/components/form/fields";
+import { LabelOptions } from "@/components/form/options";
 import { useApiMutation } from "@/lib/api/mutations";
 import { GEAR_CLASSES, GEAR_KIND_LABEL, GEAR_KINDS, classLabel } from "@/lib/gear/model";
 
@@ -22,18 +23,10 @@ export function GearForm({ workerId, today, onDone, onCancel }: { workerId: numb
     <form onSubmit={form.handleSubmit(save.submit)} className="card mb-3 grid gap-3 p-4 sm:grid-cols-3" aria-label="Record rubber goods" noValidate>
       <FormError className="sm:col-span-3" text={save.errorText} />
       <SelectField label="Kind" error={e.kind?.message} {...register("kind")}>
-        {GEAR_KINDS.map((k) => (
-          <option key={k} value={k}>
-            {GEAR_KIND_LABEL[k]}
-          </option>
-        ))}
+        <LabelOptions values={GEAR_KINDS} labels={GEAR_KIND_LABEL} />
       </SelectField>
       <SelectField label="Class" error={e.class?.message} {...register("class")}>
-        {GEAR_CLASSES.map((c) => (
-          <option key={c} value={c}>
-            {classLabel(c)}
-          </option>
-        ))}
+        <LabelOptions values={GEAR_CLASSES} labels={classLabel} />
       </SelectField>
       <TextField label="Size" maxLength={10} error={e.size?.message} {...register("size")} />
       <TextField label="Serial or label" required error={e.serial?.message} {...register("serial")} />

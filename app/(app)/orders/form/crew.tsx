@@ -1,7 +1,8 @@
 "use client";
 
 import { FieldError, SelectField, TextField } from "@/components/form/fields";
-import { PositionOptions } from "@/components/form/position-options";
+import { LabelOptions } from "@/components/form/options";
+import { AddPosition, PositionOptions } from "@/components/form/position-options";
 import { POSITION_LABEL } from "@/lib/format";
 import { LICENCE_LABEL } from "@/lib/orders/status";
 import type { WorkTypeView } from "@/lib/orders/model";
@@ -27,7 +28,6 @@ export function CrewSection({
 }) {
   const { register } = form;
   const err = (name: string) => fieldError(form, name);
-  const [addPosition, setAddPosition] = useState<Position>("ground");
 
   function resetToTemplate() {
     if (!type) return;
@@ -47,11 +47,7 @@ export function CrewSection({
         <TextField type="number" min={1} max={30} label="Minimum crew (people on site)" error={err("minCrew")} {...register("minCrew", { setValueAs: nullableNumber })} />
         <SelectField label="Driver licence needed" error={err("driverLicence")} {...register("driverLicence", { setValueAs: emptyToNull })}>
           <option value="">No driver position rule</option>
-          {Object.entries(LICENCE_LABEL).map(([k, v]) => (
-            <option key={k} value={k}>
-              {v}
-            </option>
-          ))}
+          <LabelOptions values={Object.keys(LICENCE_LABEL)} labels={LICENCE_LABEL} />
         </SelectField>
       </div>
       <div>
@@ -84,19 +80,13 @@ export function CrewSection({
             );
           })}
         </ul>
-        <div className="mt-2 flex items-center gap-2">
-          <select aria-label="Position to add" className="field w-auto" value={addPosition} onChange={(e) => setAddPosition(e.target.value as Position)}>
-            <PositionOptions />
-          </select>
-          <button type="button" className="btn-quiet" onClick={() => setRows([...rows, { position: addPosition }])}>
-            Add position
-          </button>
+        <AddPosition onAdd={(position) => setRows([...rows, { position }])}>
           {mode === "edit" && type && (
             <button type="button" className="text-xs font-semibold text-copper hover:underline" onClick={resetToTemplate}>
               Reset to template
             </button>
           )}
-        </div>
+        </AddPosition>
         <FieldError msg={err("positions")} />
         {!rows.some((r) => r.position === "lead") && (
           <p className="mt-1 text-xs font-semibold text-warn">▲ No lead position: an order with two or more people needs an employee in charge.</p>

@@ -1,6 +1,7 @@
 "use client";
 
 import { CheckField, SelectField, TextAreaField, TextField } from "@/components/form/fields";
+import { LabelOptions } from "@/components/form/options";
 import { locateWarning } from "@/lib/orders/locate";
 import { CREW_EXCEPTION_LABEL } from "@/lib/orders/status";
 import type { WorkTypeView } from "@/lib/orders/model";
@@ -73,11 +74,7 @@ export function LinesSection({ form, type }: { form: OrderFormApi; type: WorkTyp
         />
         <SelectField label="Two-person exception" error={err("crewException")} {...register("crewException", { setValueAs: emptyToNull })}>
           <option value="">None</option>
-          {Object.entries(CREW_EXCEPTION_LABEL).map(([k, v]) => (
-            <option key={k} value={k}>
-              {v}
-            </option>
-          ))}
+          <LabelOptions values={Object.keys(CREW_EXCEPTION_LABEL)} labels={CREW_EXCEPTION_LABEL} />
         </SelectField>
       </div>
       {type?.digs && (

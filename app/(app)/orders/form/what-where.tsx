@@ -1,7 +1,7 @@
 "use client";
 
 import { SelectField, TextField } from "@/components/form/fields";
-import { YardOptions } from "@/components/form/options";
+import { LabelOptions, YardOptions } from "@/components/form/options";
 import { ORDER_STATUSES, PRIORITY_LABEL, STATUS_LABEL } from "@/lib/orders/status";
 import type { WorkTypeView } from "@/lib/orders/model";
 import { emptyToNull, fieldError, type Mode, type OrderFormApi, type YardOption } from "./shared";
@@ -55,11 +55,7 @@ export function WhatWhere({
           ))}
         </SelectField>
         <SelectField label="Status" error={err("status")} {...register("status")}>
-          {statuses.map((s) => (
-            <option key={s} value={s}>
-              {STATUS_LABEL[s]}
-            </option>
-          ))}
+          <LabelOptions values={statuses} labels={STATUS_LABEL} />
         </SelectField>
       </div>
       {mode === "edit" && status === "on_hold" && (

@@ -11,20 +11,15 @@ export function WhenSection({
   form,
   mode,
   yard,
-  repeat,
-  setRepeat,
-  exdates,
-  setExdates,
+  repeat: { value: repeat, set: setRepeat, exdates, setExdates },
   durationMinutes,
   today,
 }: {
   form: OrderFormApi;
   mode: Mode;
   yard: YardOption | undefined;
-  repeat: RepeatForm;
-  setRepeat: (r: RepeatForm) => void;
-  exdates: string[];
-  setExdates: (d: string[]) => void;
+  /** The repeat rule and its skipped dates, kept by the order form. */
+  repeat: { value: RepeatForm; set: (r: RepeatForm) => void; exdates: string[]; setExdates: (d: string[]) => void };
   durationMinutes: number | null;
   today?: string;
 }) {
