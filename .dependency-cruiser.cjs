@@ -41,7 +41,7 @@ const DRIVERS = ["(^|/)node_modules/(knex|mysql2)/"];
 // Client-safe lib files: every file of a domain folder not named data*, the rules engine (pure
 // by contract, CREW-CHECK.md) and the shared display helpers.
 const DOMAINS = [
-  "assignments", "audit", "board", "briefings", "credentials", "equipment", "files", "gear", "inbox",
+  "assignments", "audit", "board", "briefings", "credentials", "equipment", "files", "gear", "messages",
   "leave", "orders", "policies", "rotations", "time", "users", "workers", "yards",
 ];
 const CLIENT_SAFE_LIB = [`^lib/(${DOMAINS.join("|")})/`, "^lib/rules/", "^lib/(format|csv)\\.ts$"];

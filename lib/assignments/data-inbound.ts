@@ -7,7 +7,7 @@ import { parsePhoneNumberFromString } from "libphonenumber-js";
 import { audit } from "@/lib/audit/data";
 import { withConflictRetry } from "@/lib/db";
 import { respond, ResponseRefused, type Answer } from "@/lib/assignments/data-responses";
-import { formatPhone, replyText, shortDay, whenText } from "@/lib/notify/messages";
+import { formatPhone, replyText, shortDay, whenText } from "@/lib/notify/wording";
 import { parseReply } from "@/lib/notify/replies";
 
 export interface InboundParams {

@@ -30,7 +30,7 @@ import { withConflictRetry } from "@/lib/db";
 import { pickYard } from "@/lib/yards/data";
 import { prepareBoardDay } from "@/lib/board/data-extras";
 import { appPublicUrl } from "@/lib/notify/config";
-import { jobEmail, jobSms, removalSms, type JobFacts, type OutboundKind } from "@/lib/notify/messages";
+import { jobEmail, jobSms, removalSms, type JobFacts, type OutboundKind } from "@/lib/notify/wording";
 import { unitsForOrders } from "@/lib/equipment/data";
 import { enqueue, pokeDelivery, type OutboxInput } from "@/lib/notify/outbox";
 

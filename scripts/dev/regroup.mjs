@@ -123,6 +123,10 @@ export const MOVES = [
   ["components/my-credentials.tsx", "app/(app)/credentials/my-credentials.tsx"],
   // "write what you lock": the booking_seq bumps every domain that books people or orders takes
   ["lib/assignments/data-booking.ts", "lib/booking/data.ts"],
+  // --- glossary (DEVELOPERS.md): "messages" are the texts and e-mails themselves (the Messages
+  // screen); the wording of what is sent is "wording"
+  ["lib/inbox/data.ts", "lib/messages/data.ts"],
+  ["lib/notify/messages.ts", "lib/notify/wording.ts"],
 ];
 
 const args = new Set(process.argv.slice(2));

@@ -16,7 +16,7 @@ import { afterAll, beforeAll, describe, expect, it } from "vitest";
 import { dbConfig } from "@/knexfile";
 import { DEMO_ACCOUNTS } from "@/db/demo/accounts";
 import { emptyBriefing } from "@/lib/briefings/model";
-import { formatPhone } from "@/lib/notify/messages";
+import { formatPhone } from "@/lib/notify/wording";
 import { APP_URL, as, Client } from "../support/client";
 import { minimalPdf, tinyPng } from "../support/files";
 import { makeOrder, removeMadeOrders, workerByNo } from "../support/fixtures";

@@ -1,7 +1,7 @@
 import { describe, expect, it } from "vitest";
 import { addMonths, dielectricState, equipmentCreateSchema, riggingCreateSchema, type Equipment } from "@/lib/equipment/model";
 import { proposeTrucks, withTrucks, type Busy } from "@/lib/equipment/fill";
-import { jobEmail, jobSms, MAX_GSM_UNITS, smsSegments, type JobFacts } from "@/lib/notify/messages";
+import { jobEmail, jobSms, MAX_GSM_UNITS, smsSegments, type JobFacts } from "@/lib/notify/wording";
 import { DEFAULT_POLICY, type DaySnapshot, type WorkOrder } from "@/lib/rules/types";
 import { zonedWallTimeToEpoch } from "@/lib/rules/time";
 

@@ -1,5 +1,5 @@
 import { describe, expect, it } from "vitest";
-import { gsmUnits, isGsm7, jobSms, MAX_GSM_UNITS, removalSms, replyText, smsSegments, toGsm7, type JobFacts } from "@/lib/notify/messages";
+import { gsmUnits, isGsm7, jobSms, MAX_GSM_UNITS, removalSms, replyText, smsSegments, toGsm7, type JobFacts } from "@/lib/notify/wording";
 
 // SMS length rules, recalled from GSM 03.38 / 3GPP TS 23.038 and TS 23.040 (concatenation):
 // the GSM 7-bit default alphabet carries 160 characters in one message and 153 per part when

@@ -1,7 +1,7 @@
 import Link from "next/link";
-import type { MessageRow } from "@/lib/inbox/data";
+import type { MessageRow } from "@/lib/messages/data";
 import { fmtDateTimeZone } from "@/lib/format";
-import { formatPhone } from "@/lib/notify/messages";
+import { formatPhone } from "@/lib/notify/wording";
 import { ChannelLabel, KIND_LABEL, StateBadge } from "./ui";
 
 function What({ m, dash = true }: { m: MessageRow; dash?: boolean }) {

@@ -2,7 +2,7 @@ import Link from "next/link";
 import { requirePageRole } from "@/lib/auth/session";
 import { contactWorkerIds } from "@/lib/auth/yard-scope";
 import { db } from "@/lib/db";
-import { listMessages, messageWorkers, unmatchedReplies } from "@/lib/inbox/data";
+import { listMessages, messageWorkers, unmatchedReplies } from "@/lib/messages/data";
 import { messagesFilterSchema } from "@/lib/notify/schema";
 import { fakesEnabled, mailboxUrl } from "@/lib/notify/config";
 import { Badge, PageHeader } from "@/components/status";

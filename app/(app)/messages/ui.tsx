@@ -1,5 +1,5 @@
 import { Badge, type Tone } from "@/components/status";
-import type { MessageRow } from "@/lib/inbox/data";
+import type { MessageRow } from "@/lib/messages/data";
 
 // Words for message states: always an icon and a word (Badge supplies the icon).
 const OUT_STATE: Record<string, { tone: Tone; word: string }> = {

@@ -1,8 +1,8 @@
 import Link from "next/link";
 import { Badge } from "@/components/status";
 import { fmtDateTimeZone } from "@/lib/format";
-import type { unmatchedReplies } from "@/lib/inbox/data";
-import { formatPhone } from "@/lib/notify/messages";
+import type { unmatchedReplies } from "@/lib/messages/data";
+import { formatPhone } from "@/lib/notify/wording";
 import { HandledButton } from "./handled-button";
 
 /** Text replies nobody's assignment matched: call the person, then mark it handled. */

@@ -3,7 +3,7 @@ import { requirePageRole } from "@/lib/auth/session";
 import { db } from "@/lib/db";
 import { fakesEnabled } from "@/lib/notify/config";
 import { workersWithPhones } from "@/lib/workers/data";
-import { formatPhone } from "@/lib/notify/messages";
+import { formatPhone } from "@/lib/notify/wording";
 import { PageHeader } from "@/components/status";
 import { PhoneClient, type PhoneOwner } from "./phone-client";
 

@@ -6,7 +6,7 @@ import { requireRole, type SessionUser } from "@/lib/auth/session";
 import { yardScope } from "@/lib/auth/yard-scope";
 import { fakesEnabled, inboundWebhookUrl, smsFakeBase } from "@/lib/notify/config";
 import { phoneQuerySchema, phoneReplySchema } from "@/lib/notify/schema";
-import { inboundBySid } from "@/lib/inbox/data";
+import { inboundBySid } from "@/lib/messages/data";
 import { workerIdByPhone } from "@/lib/workers/data";
 
 export const dynamic = "force-dynamic";

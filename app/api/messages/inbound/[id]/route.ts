@@ -5,7 +5,7 @@ import { ApiError, handler, json, readJson } from "@/lib/api/http";
 import { requireRole } from "@/lib/auth/session";
 import { yardScope } from "@/lib/auth/yard-scope";
 import { CAN_DISPATCH } from "@/lib/users/roles";
-import { markHandled } from "@/lib/inbox/data";
+import { markHandled } from "@/lib/messages/data";
 
 const body = z.object({ handled: z.literal(true, { error: "handled must be true" }) });
 
