@@ -1,6 +1,8 @@
 // Audit rows as plain sentences (issue 18 point 11): "Corinne Maddox placed Priya Raman as
 // climber on WO-26-0101." The raw detail stays available on the page under "details".
 
+import { ruleName } from "@/lib/rules/rule-labels";
+
 const VERB: Record<string, string> = {
   "assignment.create": "placed",
   "assignment.move": "moved",
@@ -32,6 +34,43 @@ const VERB: Record<string, string> = {
   "worker.update": "changed worker",
   "user.create": "added user",
   "user.update": "changed user",
+  "user.password_change": "changed their password",
+  "user.password_reset_sent": "sent a password link to",
+  "rotation.create": "created an on-call rotation",
+  "rotation.update": "changed an on-call rotation",
+  "rotation.delete": "deleted an on-call rotation",
+  "series.create": "created a repeating order series",
+  "series.update": "changed a repeating order series",
+  "series.end": "ended a repeating order series",
+  "series.materialise": "added the next orders of a series",
+  "file.upload": "uploaded a file",
+  "unavailability.create": "recorded leave",
+  "unavailability.request": "asked for leave",
+  "unavailability.delete": "deleted leave",
+  "time_record.create": "recorded worked time",
+  "time_record.delete": "deleted a time record",
+  "call_out.create": "recorded a call-out",
+  "calendar.reset": "made a new calendar link",
+  "equipment.create": "added equipment",
+  "equipment.update": "changed equipment",
+  "equipment.assign": "booked a truck",
+  "equipment.move": "moved a truck",
+  "equipment.unassign": "took a truck off",
+  "equipment.rigging_add": "added rigging to a truck",
+  "equipment.rigging_remove": "took rigging off a truck",
+  "gear.create": "recorded rubber goods",
+  "gear.import": "imported rubber goods from CSV",
+  "gear.reminders": "sent rubber goods test reminders",
+  "lift_plan.confirm": "confirmed a lift plan",
+  "lift_plan.delete": "deleted a lift plan",
+  "qualification_type.create": "added a qualification type",
+  "qualification_type.update": "changed a qualification type",
+  "qualification_type.delete": "deleted a qualification type",
+  "reminders.send": "sent credential reminders",
+  "reminders.daily": "sent the daily credential reminders",
+  "work_type.update": "changed a work type",
+  "fill.accept": "accepted proposed crews",
+  "sms.handled": "marked a text reply handled",
 };
 
 type Detail = Record<string, unknown> | null;
@@ -84,7 +123,7 @@ export function auditSentence(row: {
       return `${who} swapped ${a?.worker ?? "a worker"} and ${b?.worker ?? "a worker"}${a?.from && (a.from as Detail)?.order ? ` (${(a.from as Detail)!.order} and ${((b?.from as Detail) ?? {}).order})` : ""}.`;
     }
     case "override.create":
-      return `${who} overrode ${str(d.rule) ?? "a rule"}${order ? ` on ${order}` : ""}${d.reason ? `: “${String(d.reason)}”` : ""}.`;
+      return `${who} overrode ${d.rule ? ruleName(String(d.rule)) : "a rule"}${order ? ` on ${order}` : ""}${d.reason ? `: “${String(d.reason)}”` : ""}.`;
     case "credential.import":
       return `${who} imported credentials from CSV: ${str(d.rows) ?? 0} written, ${str(d.superseded) ?? 0} older kept as history.`;
     case "policy.update":

@@ -64,7 +64,7 @@ export default async function QueuePage() {
                     {list.map((b, i) => (
                       <li key={`${b.rule}-${b.workerId ?? ""}-${i}`} className="flex flex-wrap items-start gap-2" data-testid={`queue-block-${b.rule}`}>
                         <Badge tone="block">{b.ruleName}</Badge>
-                        <span className="min-w-0 flex-1 break-words">
+                        <span className="min-w-0 basis-full break-words sm:basis-0 sm:flex-1">
                           {b.message}
                           {b.source ? <span className="ml-1 text-xs text-ink-500">({b.source})</span> : null}
                         </span>
