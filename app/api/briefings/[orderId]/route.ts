@@ -4,6 +4,7 @@ import { idParam } from "@/lib/api/ids";
 import { requireRole } from "@/lib/auth/session";
 import { loadBriefing, modeFor, rebrief, saveBriefing } from "@/lib/briefings/data";
 import { briefingPutSchema } from "@/lib/briefings/model";
+import { idempotent } from "@/lib/offline/data";
 
 type P = { orderId: string };
 
@@ -13,6 +14,7 @@ type P = { orderId: string };
 // PUT: the crew lead only. { action: "save" | "complete", version, data } or
 //   { action: "rebrief", version, reason } (a new round; acknowledgements start again).
 //   A stale version: 409; completing with something missing: 422 naming each field.
+//   With an Idempotency-Key (the phone's offline queue), a resend is answered, not run again.
 export const GET = handler<P>(async (_req, ctx) => {
   const user = await requireRole("lineworker", "dispatcher", "supervisor");
   const orderId = idParam((await ctx.params).orderId, "work order");
@@ -24,12 +26,14 @@ export const GET = handler<P>(async (_req, ctx) => {
 
 export const PUT = handler<P>(async (req, ctx) => {
   const user = await requireRole("lineworker");
-  const orderId = idParam((await ctx.params).orderId, "work order");
-  const input = await readJson(req, briefingPutSchema);
-  const result =
-    input.action === "rebrief"
-      ? await rebrief(db(), user, orderId, input)
-      : await saveBriefing(db(), user, orderId, input);
-  const view = await loadBriefing(db(), user.organisationId, orderId);
-  return json({ result, mode: "lead", me: user.workerId ?? null, ...view });
+  return idempotent(req, user, async () => {
+    const orderId = idParam((await ctx.params).orderId, "work order");
+    const input = await readJson(req, briefingPutSchema);
+    const result =
+      input.action === "rebrief"
+        ? await rebrief(db(), user, orderId, input)
+        : await saveBriefing(db(), user, orderId, input);
+    const view = await loadBriefing(db(), user.organisationId, orderId);
+    return json({ result, mode: "lead", me: user.workerId ?? null, ...view });
+  });
 });

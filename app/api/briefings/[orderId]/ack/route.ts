@@ -4,6 +4,7 @@ import { idParam } from "@/lib/api/ids";
 import { requireRole } from "@/lib/auth/session";
 import { acknowledge } from "@/lib/briefings/data";
 import { ackSchema } from "@/lib/briefings/model";
+import { idempotent } from "@/lib/offline/data";
 
 type P = { orderId: string };
 
@@ -13,8 +14,11 @@ type P = { orderId: string };
 // started a new round meanwhile: 409; a second acknowledgement changes nothing (200).
 export const POST = handler<P>(async (req, ctx) => {
   const user = await requireRole("lineworker");
-  const orderId = idParam((await ctx.params).orderId, "work order");
-  const input = await readJson(req, ackSchema);
-  const result = await acknowledge(db(), user, orderId, input);
-  return json(result, result.unchanged ? 200 : 201);
+  // Idempotency-Key (the phone's offline queue): a resend gets the first answer again.
+  return idempotent(req, user, async () => {
+    const orderId = idParam((await ctx.params).orderId, "work order");
+    const input = await readJson(req, ackSchema);
+    const result = await acknowledge(db(), user, orderId, input);
+    return json(result, result.unchanged ? 200 : 201);
+  });
 });
