@@ -8,7 +8,7 @@ const STYLES: Record<Tone, { cls: string; word: string }> = {
   warn: { cls: "bg-warn-bg text-warn", word: "Warn" },
   clear: { cls: "bg-clear-bg text-clear", word: "Clear" },
   info: { cls: "bg-info-bg text-info", word: "Info" },
-  waived: { cls: "bg-waived-bg text-waived", word: "Overridden" },
+  overridden: { cls: "bg-waived-bg text-waived", word: "Overridden" },
   muted: { cls: "bg-paper-200 text-ink-500", word: "" },
 };
 
@@ -36,7 +36,7 @@ export function StateIcon({ tone, className = "h-3 w-3" }: { tone: Tone; classNa
           <path d="M1 6.4l1.3-1.3 2.3 2.3L9.7 2.3 11 3.6 4.6 10z" fill="currentColor" />
         </svg>
       );
-    case "waived": // pen stroke
+    case "overridden": // pen stroke
       return (
         <svg {...common}>
           <path d="M8.3 0.8l2.9 2.9-7 7H1.3V7.8z" fill="currentColor" />

@@ -72,7 +72,7 @@ export function ProposedCrews({
             ))}
             {o.overridesLapse.map((v, i) => (
               <p key={`v${i}`} className="mt-1 text-xs text-ink-700">
-                <Badge tone="waived">{v.rule} override lapses</Badge> it was given for the crew as it is now; a supervisor must give it again after this change.
+                <Badge tone="overridden">{v.rule} override lapses</Badge> it was given for the crew as it is now; a supervisor must give it again after this change.
               </p>
             ))}
             <ul className="mt-2 space-y-1.5">

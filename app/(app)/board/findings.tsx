@@ -24,7 +24,7 @@ export function FindingRow({
     <li className="rounded-md bg-paper-200/60 px-2 py-1.5 text-xs" data-testid={`finding-${f.rule}`}>
       <div className="flex flex-wrap items-center gap-1.5">
         {waived ? (
-          <Badge tone="waived">Overridden</Badge>
+          <Badge tone="overridden">Overridden</Badge>
         ) : f.level === "block" ? (
           <Badge tone="block">Block</Badge>
         ) : (

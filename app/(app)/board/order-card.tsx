@@ -206,7 +206,7 @@ export const OrderCardView = memo(function OrderCardView({
           {onHold && <Badge tone="block">On hold</Badge>}
           {blocks.length === 0 && !onHold && <Badge tone="clear">Clear</Badge>}
           {warns.length > 0 && <Badge tone="warn">{warns.length} warn</Badge>}
-          {waived.length > 0 && <Badge tone="waived">{waived.length} overridden</Badge>}
+          {waived.length > 0 && <Badge tone="overridden">{waived.length} overridden</Badge>}
         </div>
       </header>
       <div className="mt-1 flex flex-wrap gap-1">

@@ -104,7 +104,7 @@ export default async function DaySheetPage({ searchParams }: { searchParams: Pro
                   <ul className="space-y-1">
                     {o.findings.map((f, i) => (
                       <li key={`${f.rule}-${i}`} className="flex flex-wrap items-start gap-1.5">
-                        <Badge tone={f.override ? "waived" : f.level}>{f.ruleName}</Badge>
+                        <Badge tone={f.override ? "overridden" : f.level}>{f.ruleName}</Badge>
                         <span className="min-w-0 basis-full break-words sm:basis-0 sm:flex-1">
                           {f.message}
                           {f.override ? <em> ({f.override})</em> : null}

@@ -92,7 +92,7 @@ export default async function QueuePage() {
             {q.lapsed.map((l) => (
               <li key={l.overrideId} className="rounded-md border border-rule p-3 text-sm" data-testid={`queue-lapse-${l.orderNumber}`}>
                 <div className="flex flex-wrap items-center gap-2">
-                  <Badge tone="waived">{l.ruleName}</Badge>
+                  <Badge tone="overridden">{l.ruleName}</Badge>
                   <Link href={`/orders/${l.orderId}`} className="font-bold">
                     {l.orderNumber}
                   </Link>
