@@ -246,3 +246,27 @@ describe("the time limit covers the whole fill", () => {
     expect(solverDeadline({ t0: 0, s: s(10) }, 7000)).toBe(10_000); // a slow start: 7 s + 3 s
   });
 });
+
+describe("explanations within the time", () => {
+  it("past its deadline an open seat says it was not worked out, and no probe runs; before it, seats are explained", async () => {
+    const problem = small(5);
+    const run = createRun(problem);
+    runEligibility(run);
+    const before = run.probe.probes;
+    const late = await explain(run, nothingToSolve(run), new Map(), 0);
+    expect(late.openSeats.length).toBeGreaterThan(0);
+    expect(late.openSeats.every((s) => s.summary === "not worked out in the time allowed" && s.candidates.length === 0)).toBe(true);
+    expect(late.openSeats.every((s) => s.eligibleCount === run.ctxById.get(s.orderId)!.eligible.get(s.position)!.length)).toBe(true);
+    expect(run.probe.probes).toBe(before);
+    const inTime = await explain(run, nothingToSolve(run), new Map(), Infinity);
+    expect(inTime.openSeats.some((s) => s.summary !== "not worked out in the time allowed")).toBe(true);
+    expect(run.probe.probes).toBeGreaterThan(before);
+  });
+
+  it("the explanations' deadline is the end of the fill's time limit, or a second from now if that is later", async () => {
+    const { explainDeadlineOf } = await import("@/lib/fill/steps/explain");
+    const s = { timeLimitSeconds: 10 } as never;
+    expect(explainDeadlineOf({ t0: 0, s }, 8500)).toBe(10_000);
+    expect(explainDeadlineOf({ t0: 0, s }, 9500)).toBe(10_500);
+  });
+});

@@ -13,11 +13,20 @@ import { buildModel } from "./build-model";
 import { checkpoint, cmpStr, type Built, type Ctx, type FillRun, type Group } from "./context";
 import type { Solved } from "./solve";
 
-export async function explain(run: FillRun, solved: Solved, placedOn: Map<string, string[]>): Promise<{ openOrders: OpenOrder[]; openSeats: OpenSeat[] }> {
+/** Whatever is left of the fill's time limit, and at least a second (fill.ts solverDeadline). */
+export function explainDeadlineOf(run: Pick<FillRun, "t0" | "s">, now = performance.now()): number {
+  return Math.max(now + 1000, run.t0 + run.s.timeLimitSeconds * 1000);
+}
+
+export async function explain(
+  run: FillRun,
+  solved: Solved,
+  placedOn: Map<string, string[]>,
+  deadline?: number,
+): Promise<{ openOrders: OpenOrder[]; openSeats: OpenSeat[] }> {
   await checkpoint(run, "explain");
   const t = performance.now();
-  // Whatever is left of the fill's time limit, and at least a second (fill.ts solverDeadline).
-  const explainDeadline = Math.max(t + 1000, run.t0 + run.s.timeLimitSeconds * 1000);
+  const explainDeadline = deadline ?? explainDeadlineOf(run, t);
   const openOrders: OpenOrder[] = [];
   const openSeats: OpenSeat[] = [];
   const { rounds } = solved;
@@ -25,7 +34,9 @@ export async function explain(run: FillRun, solved: Solved, placedOn: Map<string
     const o = c.fo.id;
     if (solved.staffed.has(o)) continue;
     for (const [p, seats] of c.open) {
-      const info = seatInfo(run, c, p);
+      // Past the deadline (a slow machine, or hundreds of orders left open) the seat says so
+      // instead of probing the whole pool for it.
+      const info = performance.now() <= explainDeadline ? seatInfo(run, c, p) : unexplainedSeat(c, p);
       for (const positionId of seats) openSeats.push({ orderId: o, positionId, position: p, ...info });
     }
     if (c.impossible) {
@@ -49,6 +60,11 @@ export async function explain(run: FillRun, solved: Solved, placedOn: Map<string
 }
 
 /** Who is kept out of an open seat and why, closest first, and the counts by reason. */
+/** An open seat not worked through in the time allowed: how many are eligible is known, who is kept out is not. */
+export function unexplainedSeat(c: Ctx, p: Position): Omit<OpenSeat, "orderId" | "positionId" | "position"> {
+  return { candidates: [], excludedCount: 0, eligibleCount: c.eligible.get(p)!.length, summary: "not worked out in the time allowed" };
+}
+
 export function seatInfo(run: FillRun, c: Ctx, p: Position) {
   const { pool, probe, ix, s } = run;
   const counts = new Map<Category, number>();
