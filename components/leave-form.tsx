@@ -34,7 +34,7 @@ const KINDS = [
 
 /**
  * Leave, training or sickness (the leave page and My week): validated with unavailabilitySchema
- * like POST /api/unavailability, which answers 422 naming the field.
+ * like POST /api/leave, which answers 422 naming the field.
  */
 export function LeaveForm({ workers = [], workerId, asks, defaults = { start: "", end: "" }, yardName, className = "space-y-3" }: Props) {
   const fixedId = workerId ?? (workers.length === 1 ? workers[0].id : 0);
@@ -43,7 +43,7 @@ export function LeaveForm({ workers = [], workerId, asks, defaults = { start: ""
   const { register } = form;
   const errors = form.formState.errors;
   const save = useApiMutation<UnavailabilityFormValues, { status?: string; workerName?: string }>({
-    request: (values) => ({ url: "/api/unavailability", method: "POST", body: values }),
+    request: (values) => ({ url: "/api/leave", method: "POST", body: values }),
     form,
     refresh: true,
     onSuccess: (_r, values) => form.reset({ ...values, note: "" }),

@@ -215,7 +215,7 @@ describe("repeating orders", () => {
 describe("leave, training and sickness", () => {
   it("refuses leave overlapping approved leave for the same person with a clear message (issue 7)", async () => {
     // Demo: Noah Feldkamp (CP-1011) is on approved leave from tomorrow for three days.
-    const r = await hr.json("/api/unavailability", "POST", {
+    const r = await hr.json("/api/leave", "POST", {
       workerId: workerId["CP-1011"],
       kind: "training",
       start: `${tomorrow}T08:00`,
@@ -227,14 +227,14 @@ describe("leave, training and sickness", () => {
   });
 
   it("a lineworker may request only for themself; the request waits for a supervisor", async () => {
-    const other = await lineworker.json("/api/unavailability", "POST", {
+    const other = await lineworker.json("/api/leave", "POST", {
       workerId: workerId["CP-1014"],
       kind: "leave",
       start: `${addDays(today, 50)}T00:00`,
       end: `${addDays(today, 51)}T00:00`,
     });
     expect(other.status).toBe(403);
-    const own = await lineworker.json("/api/unavailability", "POST", {
+    const own = await lineworker.json("/api/leave", "POST", {
       workerId: workerId["CP-1001"],
       kind: "leave",
       start: `${addDays(today, 50)}T00:00`,
@@ -243,16 +243,16 @@ describe("leave, training and sickness", () => {
     });
     expect(own.status).toBe(201);
     expect(own.body.status).toBe("requested");
-    cleanup.push(() => supervisor.json(`/api/unavailability/${own.body.id}`, "DELETE"));
-    const again = await lineworker.json("/api/unavailability", "POST", {
+    cleanup.push(() => supervisor.json(`/api/leave/${own.body.id}`, "DELETE"));
+    const again = await lineworker.json("/api/leave", "POST", {
       workerId: workerId["CP-1001"],
       kind: "sickness",
       start: `${addDays(today, 50)}T12:00`,
       end: `${addDays(today, 52)}T00:00`,
     });
     expect(again.status).toBe(409); // a pending request blocks an overlapping one too
-    expect((await lineworker.json(`/api/unavailability/${own.body.id}`, "PATCH", { status: "approved" })).status).toBe(403);
-    const approved = await supervisor.json(`/api/unavailability/${own.body.id}`, "PATCH", { status: "approved" });
+    expect((await lineworker.json(`/api/leave/${own.body.id}`, "PATCH", { status: "approved" })).status).toBe(403);
+    const approved = await supervisor.json(`/api/leave/${own.body.id}`, "PATCH", { status: "approved" });
     expect(approved.status).toBe(200);
     expect(approved.body.status).toBe("approved");
   });

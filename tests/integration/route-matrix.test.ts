@@ -281,15 +281,15 @@ describe("a lineworker (Marcus Whitfield, CP-1001) reads and writes only their o
     expect(week.status).toBe(200);
     // Leave: the list is their own; another's entry is "no such entry"; no request or withdrawal for another.
     const theirs = await fx.unavailability(fx.other.workerId, "requested");
-    const leave = await lw.json<{ entries: { id: number; workerId: number }[] }>("/api/unavailability");
+    const leave = await lw.json<{ entries: { id: number; workerId: number }[] }>("/api/leave");
     expect(leave.status).toBe(200);
     expect(leave.body.entries.every((x) => x.workerId === fx.marcus.workerId)).toBe(true);
     expect(leave.body.entries.map((x) => x.id)).not.toContain(theirs);
-    expect((await lw.json(`/api/unavailability?workerId=${fx.other.workerId}`)).status).toBe(403);
-    expect((await lw.json(`/api/unavailability/${theirs}`)).status).toBe(404);
-    expect((await lw.json(`/api/unavailability/${theirs}`, "DELETE")).status).toBe(403);
+    expect((await lw.json(`/api/leave?workerId=${fx.other.workerId}`)).status).toBe(403);
+    expect((await lw.json(`/api/leave/${theirs}`)).status).toBe(404);
+    expect((await lw.json(`/api/leave/${theirs}`, "DELETE")).status).toBe(403);
     const day = addDays(todayIn(fx.yard.timezone), 260);
-    expect((await lw.json("/api/unavailability", "POST", { workerId: fx.other.workerId, kind: "leave", start: `${day}T00:00`, end: `${day}T12:00` })).status).toBe(403);
+    expect((await lw.json("/api/leave", "POST", { workerId: fx.other.workerId, kind: "leave", start: `${day}T00:00`, end: `${day}T12:00` })).status).toBe(403);
     // The calendar link of someone else.
     expect((await lw.json("/api/calendar/reset", "POST", { workerId: fx.other.workerId })).status).toBe(403);
   });

@@ -877,15 +877,15 @@ export const ROUTES: RouteEntry[] = [
   },
   {
     method: "GET",
-    route: "/api/unavailability",
+    route: "/api/leave",
     roles: ["hr", "supervisor", "dispatcher", "admin", "lineworker"],
     status: 200,
     fuzz: "query",
-    sample: () => ({ path: "/api/unavailability" }),
+    sample: () => ({ path: "/api/leave" }),
   },
   {
     method: "POST",
-    route: "/api/unavailability",
+    route: "/api/leave",
     roles: ["hr", "supervisor", "lineworker"],
     status: 201,
     audit: true,
@@ -893,35 +893,35 @@ export const ROUTES: RouteEntry[] = [
     sample: (fx, caller) => {
       const day = fx.nextDay();
       return {
-        path: "/api/unavailability",
+        path: "/api/leave",
         body: { workerId: caller === "lineworker" ? fx.marcus.workerId : fx.worker.id, kind: "training", start: wall(day, "00:00"), end: wall(day, "12:00"), note: "Route matrix" },
       };
     },
   },
   {
     method: "GET",
-    route: "/api/unavailability/[id]",
+    route: "/api/leave/[id]",
     roles: ["hr", "supervisor", "dispatcher", "admin", "lineworker"],
     status: 200,
-    sample: (fx) => ({ path: `/api/unavailability/${fx.marcusUnavailabilityId}` }),
+    sample: (fx) => ({ path: `/api/leave/${fx.marcusUnavailabilityId}` }),
   },
   {
     method: "PATCH",
-    route: "/api/unavailability/[id]",
+    route: "/api/leave/[id]",
     roles: ["supervisor", "hr"],
     status: 200,
     audit: true,
     fuzz: "json",
-    sample: async (fx) => ({ path: `/api/unavailability/${await fx.unavailability(fx.worker.id, "approved")}`, body: { note: "Route matrix: corrected" } }),
+    sample: async (fx) => ({ path: `/api/leave/${await fx.unavailability(fx.worker.id, "approved")}`, body: { note: "Route matrix: corrected" } }),
   },
   {
     method: "DELETE",
-    route: "/api/unavailability/[id]",
+    route: "/api/leave/[id]",
     roles: ["supervisor", "hr", "lineworker"],
     status: 200,
     audit: true,
     sample: async (fx, caller) => ({
-      path: `/api/unavailability/${caller === "lineworker" ? await fx.unavailability(fx.marcus.workerId, "requested") : await fx.unavailability(fx.worker.id, "approved")}`,
+      path: `/api/leave/${caller === "lineworker" ? await fx.unavailability(fx.marcus.workerId, "requested") : await fx.unavailability(fx.worker.id, "approved")}`,
     }),
   },
   // --- messages and the SMS side -------------------------------------------------------------

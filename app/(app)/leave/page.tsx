@@ -58,13 +58,13 @@ export default async function LeavePage() {
         <Badge tone={STATUS[e.status].tone}>{STATUS[e.status].word}</Badge>
         {canDecide && e.status === "requested" && (
           <>
-            <ActionButton url={`/api/unavailability/${e.id}`} method="PATCH" body={{ status: "approved" }} label="Approve" className="btn-primary px-2 py-1 text-xs" />
-            <ActionButton url={`/api/unavailability/${e.id}`} method="PATCH" body={{ status: "refused" }} label="Refuse" className="btn-quiet px-2 py-1 text-xs" />
+            <ActionButton url={`/api/leave/${e.id}`} method="PATCH" body={{ status: "approved" }} label="Approve" className="btn-primary px-2 py-1 text-xs" />
+            <ActionButton url={`/api/leave/${e.id}`} method="PATCH" body={{ status: "refused" }} label="Refuse" className="btn-quiet px-2 py-1 text-xs" />
           </>
         )}
         {((own && e.status === "requested") || canRemove) && (
           <ActionButton
-            url={`/api/unavailability/${e.id}`}
+            url={`/api/leave/${e.id}`}
             confirm={own ? "Withdraw this request?" : "Remove this entry? The boards re-check at once."}
             label={own ? "Withdraw" : "Remove"}
             className="btn-quiet px-2 py-1 text-xs"
