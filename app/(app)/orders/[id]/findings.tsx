@@ -28,7 +28,7 @@ export async function OrderFindings({ organisationId, orderId }: { organisationI
           {findings.map((f, i) => (
             <li key={`${f.rule}-${f.workerId ?? ""}-${i}`} className="flex flex-wrap items-start gap-2" data-testid={`order-finding-${f.rule}`}>
               <Badge tone={f.level === "block" ? "block" : "warn"}>{ruleName(f.rule)}</Badge>
-              <span>
+              <span className="min-w-0 basis-full break-words sm:basis-0 sm:flex-1">
                 {f.message}
                 {f.level === "block" && !f.locked && overridden.has(`${f.rule}|${f.workerId ?? ""}`) ? " (overridden by a supervisor)" : ""}
                 {f.source ? <span className="ml-1 text-xs text-ink-500">({f.source})</span> : null}
