@@ -11,7 +11,9 @@ export default async function LoginPage() {
   if (user) redirect(START_PAGE[user.role]);
   return (
     <div className="rounded-card bg-paper p-6 shadow-xl sm:p-8">
-      <Logo className="text-ink" />
+      <h1>
+        <Logo className="text-ink" />
+      </h1>
       <p className="mt-1 text-sm text-ink-500">Crew dispatch for distribution line work</p>
       <LoginForm />
     </div>
