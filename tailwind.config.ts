@@ -13,7 +13,8 @@ const config: Config = {
         ink: { DEFAULT: "#16232b", 700: "#2b3a42", 500: "#56656c", 300: "#9aa5a9" },
         paper: { DEFAULT: "#f6f4ef", 50: "#fbfaf7", 200: "#ebe7dd" },
         rule: "#d9d4c7",
-        copper: { DEFAULT: "#a85a24", 600: "#8e4a1b", 100: "#f4e4d6" },
+        // copper a shade deeper than the mark's #a85a24 so copper text holds 4.5:1 on paper and its tints (WCAG 1.4.3)
+        copper: { DEFAULT: "#9c531f", 600: "#8e4a1b", 100: "#f4e4d6" },
         block: { DEFAULT: "#b34700", bg: "#fbe6d9" },
         warn: { DEFAULT: "#8a5a00", bg: "#fbefc9" },
         clear: { DEFAULT: "#00664a", bg: "#d8f0e6" },

@@ -74,7 +74,7 @@ export function EquipmentSeats({
       {need && (
         <Slot id={equipmentSeatId(card.id, need)} label={`${EQUIPMENT_KIND_LABEL[need]} seat on ${card.number}`} testId={`eqseat-${card.number}`} preview={mineNow}>
           <span className="font-semibold text-ink-500">{EQUIPMENT_KIND_LABEL[need]}</span>
-          {seated ? <Booked b={seated} e={equipment.get(seated.equipmentId)} day={day} /> : <span className="text-ink-300">open</span>}
+          {seated ? <Booked b={seated} e={equipment.get(seated.equipmentId)} day={day} /> : <span className="text-ink-500">open</span>}
         </Slot>
       )}
       <Slot id={equipmentAddId(card.id)} label={`Further equipment on ${card.number}`} testId={`eqadd-${card.number}`} preview={mineNow}>
@@ -82,7 +82,7 @@ export function EquipmentSeats({
         {extra.map((b) => (
           <Booked key={b.id} b={b} e={equipment.get(b.equipmentId)} day={day} />
         ))}
-        {extra.length === 0 && <span className="text-ink-300">drop a truck or trailer</span>}
+        {extra.length === 0 && <span className="text-ink-500">drop a truck or trailer</span>}
       </Slot>
     </ul>
   );
