@@ -69,12 +69,24 @@ const WorkerCard = memo(function WorkerCard({
   const { pw, w, placedOn } = item;
   const { attributes, listeners, setNodeRef, isDragging } = useDraggable({ id: poolId(pw.id), data: { workerId: pw.id } });
   const short = pw.restHours !== null && pw.restHours < minRest;
+  // The name a screen reader hears replaces the card's text, so it carries what the chips show.
+  const notes = [
+    ...(w?.credentials ?? [])
+      .filter((c) => CRED_LABEL[c.type])
+      .map((c) => ({ label: CRED_LABEL[c.type], state: credState(c.expiresOn, day, warnDays) }))
+      .filter((c) => c.state !== "valid")
+      .map((c) => `${c.label} ${c.state === "lapsed" ? "lapsed" : "lapsing soon"}`),
+    pw.unavailableReason ? `on ${pw.unavailableReason}` : "",
+    short ? `rest ${pw.restHours} h` : "",
+    pw.onCallTonight ? "on call tonight" : "",
+    placedOn.length > 0 ? `on ${placedOn.join(", ")}` : "",
+  ].filter(Boolean);
   return (
     <div
       ref={setNodeRef}
       {...listeners}
       {...attributes}
-      aria-label={`${pw.name}, ${CLASSIFICATION_LABEL[pw.classification]}, ${pw.yardCode}`}
+      aria-label={[`${pw.name}, ${CLASSIFICATION_LABEL[pw.classification]}, ${pw.yardCode}`, ...notes].join(", ")}
       data-testid={`pool-worker-${pw.employeeNo}`}
       className={`cursor-grab touch-none rounded-md border border-rule bg-white px-2.5 py-1.5 text-sm shadow-sm outline-none focus-visible:ring-2 focus-visible:ring-copper ${
         isDragging ? "opacity-40" : ""
