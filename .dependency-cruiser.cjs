@@ -42,9 +42,10 @@ const DRIVERS = ["(^|/)node_modules/(knex|mysql2)/"];
 // by contract, CREW-CHECK.md) and the shared display helpers.
 const DOMAINS = [
   "assignments", "audit", "board", "briefings", "credentials", "equipment", "files", "gear", "messages",
-  "leave", "orders", "policies", "rotations", "time", "users", "workers", "yards",
+  "leave", "orders", "policies", "rotations", "time", "time-records", "users", "workers", "yards",
+  "booking", "events", "daysheet", "notices", "queue", "offline",
 ];
-const CLIENT_SAFE_LIB = [`^lib/(${DOMAINS.join("|")})/`, "^lib/rules/", "^lib/(format|csv)\\.ts$"];
+const CLIENT_SAFE_LIB = [`^lib/(${DOMAINS.join("|")})/`, "^lib/rules/", "^lib/(format|csv|tone)\\.ts$"];
 const NOT_DATA = "/data(-|[.]ts$)";
 
 // The synthetic benchmark day and what is built on it: for scripts/, bench/ and tests/ only.
