@@ -134,6 +134,8 @@ export const remaining = (run: FillRun) => Math.max(0.05, (run.deadline - perfor
 export async function checkpoint(run: FillRun, phase: FillProgress["phase"], gap: number | null = null): Promise<void> {
   if (!run.signal && !run.onProgress) return;
   run.onProgress?.({ phase, elapsedMs: Math.round(performance.now() - run.t0), gap });
-  await new Promise<void>((resolve) => setImmediate(resolve));
+  // A timer turn (about 1 ms): time for the streamed line to pass the server's stream pipes to
+  // the socket before the next synchronous stretch of solving.
+  await new Promise<void>((resolve) => setTimeout(resolve, 1));
   if (run.signal?.aborted) throw new FillCancelled();
 }
