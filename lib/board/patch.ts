@@ -14,6 +14,8 @@ const COLLECTIONS: { path: string; key: (x: Obj) => string }[] = [
   { path: "orders", key: (x) => String(x.id) },
   { path: "pool", key: (x) => String(x.id) },
   { path: "overrides", key: (x) => String(x.id) },
+  // Findings of a 400-order day are a few hundred kB: one by one too (keys that repeat → whole).
+  { path: "findings", key: (x) => `${x.rule}|${x.workOrderId}|${x.workerId ?? ""}|${x.equipmentId ?? ""}` },
   { path: "equipment", key: (x) => String(x.id) },
   { path: "equipmentBookings", key: (x) => String(x.id) },
   { path: "snapshot.workers", key: (x) => String(x.id) },
