@@ -1,5 +1,6 @@
 // My week's reads: the lineworker's upcoming assignments with their crews, briefings waiting
 // for them, their leave entries. Server only.
+import "@/lib/server-only";
 import type { Knex } from "knex";
 import { POSITION_LABEL } from "@/lib/format";
 
