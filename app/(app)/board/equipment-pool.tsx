@@ -80,7 +80,7 @@ export function EquipmentPool({ payload }: { payload: BoardPayload }) {
       </div>
       <div
         ref={setNodeRef}
-        className={`mt-2 grid max-h-[40vh] gap-1.5 overflow-y-auto rounded-md p-0.5 ${isOver ? "ring-2 ring-copper" : ""}`}
+        className={`mt-2 grid max-h-[40vh] grid-cols-1 gap-1.5 overflow-y-auto rounded-md p-0.5 ${isOver ? "ring-2 ring-copper" : ""}`}
         data-testid="equipment-pool-drop"
       >
         {list.map((e) => (
