@@ -7,7 +7,8 @@ import { crewHash } from "@/lib/board/data";
 import { fmtDateTimeZone, fmtLocalStart } from "./words";
 import { listNotices } from "@/lib/notices/data";
 import { ruleName } from "@/lib/rules/rule-labels";
-import { addDays, listYards, todayIn, type Yard } from "@/lib/yards/data";
+import { listYards, type Yard } from "@/lib/yards/data";
+import { addDays, todayIn } from "@/lib/time/days";
 import { QUEUE_DAYS, type QueueBlock, type QueueLapse, type QueuePayload } from "./model";
 
 export interface QueueUser {

@@ -2,13 +2,13 @@ import Link from "next/link";
 import { requirePageRole } from "@/lib/auth/session";
 import { db } from "@/lib/db";
 import { Badge, PageHeader, StateIcon, type Tone } from "@/components/status";
-import { MyCredentials } from "@/components/my-credentials";
+import { MyCredentials } from "@/app/(app)/credentials/my-credentials";
 import { calendarUrlFor } from "@/lib/workers/data-calendar";
 import { briefingsToAcknowledge } from "@/lib/briefings/data";
 import { listUnavailability } from "@/lib/leave/data";
 import { POSITION_LABEL } from "@/lib/format";
 import { CalendarLink } from "./calendar-link";
-import { mapLink, myAssignments, phoneText, whenLocal, type MyAssignment } from "./data";
+import { mapLink, myAssignments, phoneText, whenLocal, type MyAssignment } from "@/lib/assignments/data-my-week";
 import { LeaveForm } from "./leave-form";
 import { RespondButtons } from "./respond-buttons";
 
