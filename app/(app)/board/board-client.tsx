@@ -131,6 +131,7 @@ export function BoardClient({
 
   return (
     <DndContext
+      id="board"
       sensors={sensors}
       collisionDetection={collision}
       onDragStart={(e) => setActiveId(String(e.active.id))}
