@@ -5,6 +5,8 @@
 export const FIELD_CACHE = "gaffline-field";
 /** The app shell precache and other Serwist caches all start with this prefix (cacheId). */
 export const CACHE_PREFIX = "gaffline";
+/** The message that has the service worker drop the field cache (sign-out). */
+export const CLEAR_MESSAGE = "CLEAR_FIELD_CACHE";
 /** The IndexedDB database of the phone's queue and its owner. */
 export const QUEUE_DB = "gaffline-offline";
 
