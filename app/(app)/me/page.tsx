@@ -1,7 +1,8 @@
 import Link from "next/link";
 import { requirePageRole } from "@/lib/auth/session";
 import { db } from "@/lib/db";
-import { Badge, PageHeader, StateIcon, type Tone } from "@/components/status";
+import { Badge, PageHeader, SafetyNote, StateIcon, type Tone } from "@/components/status";
+import { OfflineSync } from "@/components/offline/offline-sync";
 import { MyCredentials } from "@/app/(app)/credentials/my-credentials";
 import { calendarUrlFor } from "@/lib/workers/data-calendar";
 import { briefingsToAcknowledge } from "@/lib/briefings/data";
@@ -65,10 +66,14 @@ export default async function MyWeekPage() {
   ]);
   const upcomingLeave = leave.filter((l) => new Date(l.end).getTime() > now.getTime());
   const calendarUrl = worker?.calendar_token ? calendarUrlFor(String(worker.calendar_token)) : null;
+  // Issue 20: this page and the briefings of the lineworker's own jobs (the next seven days,
+  // not declined) are kept on the phone on each visit with signal.
+  const keep = ["/me", ...new Set(assignments.filter((a) => a.status !== "declined").map((a) => `/orders/${a.orderId}/briefing`))];
 
   return (
     <div className="mx-auto max-w-2xl">
       <PageHeader eyebrow="My week" title={`Hello, ${user.name.split(" ")[0]}`} />
+      <OfflineSync userId={user.id} keep={keep} />
 
       {toAck.length > 0 && (
         <section aria-labelledby="ack-h" className="mb-6">
@@ -103,9 +108,10 @@ export default async function MyWeekPage() {
         {assignments.length === 0 && <p className="card p-4 text-sm text-ink-500">Nothing is planned for you in the next seven days.</p>}
         <ul className="space-y-3">
           {assignments.map((a) => (
-            <AssignmentCard key={a.id} a={a} me={user.workerId!} />
+            <AssignmentCard key={a.id} a={a} me={user.workerId!} userId={user.id} />
           ))}
         </ul>
+        <SafetyNote className="mt-3" />
       </section>
 
       <MyCredentials workerId={user.workerId} organisationId={user.organisationId} />
@@ -146,7 +152,7 @@ export default async function MyWeekPage() {
   );
 }
 
-function AssignmentCard({ a, me }: { a: MyAssignment; me: number }) {
+function AssignmentCard({ a, me, userId }: { a: MyAssignment; me: number; userId: number }) {
   const s = STATE[a.status] ?? STATE.draft;
   const onHold = a.orderStatus === "on_hold" || a.briefingState === "on_hold";
   const b = briefingWord(a);
@@ -216,7 +222,7 @@ function AssignmentCard({ a, me }: { a: MyAssignment; me: number }) {
 
       {a.status === "draft" && <p className="mt-2 text-xs text-ink-500">You can answer once dispatch sends the crew.</p>}
       {(a.status === "sent" || a.status === "delivered" || a.status === "confirmed") && (
-        <RespondButtons assignmentId={a.id} status={a.status} orderNumber={a.number} />
+        <RespondButtons assignmentId={a.id} status={a.status} orderNumber={a.number} userId={userId} />
       )}
     </li>
   );

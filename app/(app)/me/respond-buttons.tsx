@@ -2,14 +2,16 @@
 
 import { useRouter } from "next/navigation";
 import { useId, useState } from "react";
-import { FormAlert, sendJson } from "@/components/form-bits";
+import { FormAlert } from "@/components/form-bits";
+import { submitAction } from "@/components/offline/field-queue";
 
 /**
  * Confirm / Decline on My week, through the shared respond route (the same state machine as a
  * text reply). Decline asks for an optional reason. Shown for sent and delivered assignments;
- * a confirmed one can still be declined.
+ * a confirmed one can still be declined. Through the phone's queue (issue 20): without signal
+ * the answer is saved on this phone and sent, with its idempotency key, once back online.
  */
-export function RespondButtons({ assignmentId, status, orderNumber }: { assignmentId: number; status: string; orderNumber: string }) {
+export function RespondButtons({ assignmentId, status, orderNumber, userId }: { assignmentId: number; status: string; orderNumber: string; userId: number }) {
   const router = useRouter();
   const [declining, setDeclining] = useState(false);
   const [reason, setReason] = useState("");
@@ -21,11 +23,22 @@ export function RespondButtons({ assignmentId, status, orderNumber }: { assignme
   async function answer(a: "confirm" | "decline") {
     setBusy(true);
     setError(null);
-    const r = await sendJson<{ outcome?: string; error?: string }>(`/api/assignments/${assignmentId}/respond`, "POST", {
-      answer: a,
-      ...(a === "decline" && reason.trim() ? { reason: reason.trim() } : {}),
+    const out = await submitAction({
+      kind: "assignment.respond",
+      userId,
+      orderId: null,
+      label: `${a === "confirm" ? "Confirm" : "Decline"} ${orderNumber}`,
+      url: `/api/assignments/${assignmentId}/respond`,
+      method: "POST",
+      body: { answer: a, ...(a === "decline" && reason.trim() ? { reason: reason.trim() } : {}) },
     });
     setBusy(false);
+    if (out.kind === "queued") {
+      setDone(`${a === "confirm" ? "Confirm" : "Decline"} saved on this phone, not yet sent: dispatch gets it when the phone is back online.`);
+      setDeclining(false);
+      return;
+    }
+    const r = { ok: out.kind === "sent", body: out.result.body as { outcome?: string; error?: string } | null };
     if (!r.ok) {
       setError(r.body?.error ?? "Not sent. Try again.");
       return;

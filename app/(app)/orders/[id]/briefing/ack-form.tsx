@@ -2,21 +2,28 @@
 
 // A crew member's acknowledgement with their check of their protective equipment and their
 // climbing and fall-protection gear, done from their own phone. The lead uses the same form
-// to record an acknowledgement given in person by someone without a sign-in.
+// to record an acknowledgement given in person by someone without a sign-in. It goes through
+// the phone's queue (issue 20): without signal it is saved on this phone and sent later.
 import { zodResolver } from "@hookform/resolvers/zod";
 import { useId, useMemo, useState } from "react";
 import { useForm, useWatch } from "react-hook-form";
-import { FieldError, FormAlert, sendJson } from "@/components/form-bits";
+import { FieldError, FormAlert } from "@/components/form-bits";
+import { submitAction } from "@/components/offline/field-queue";
 import { GEAR, gearCheckSchema, type GearCheck, type GearCheckValues } from "@/lib/briefings/model";
 
 interface Props {
   orderId: number;
   round: number;
+  orderNumber: string;
+  /** The signed-in user (the queue's owner). */
+  userId: number;
   workDate: string;
   climbing: boolean;
   /** Set when the lead records someone else's acknowledgement in person. */
   forWorker?: { id: number; name: string };
   onDone: () => void;
+  /** Saved on the phone without signal, not yet sent. */
+  onQueued?: () => void;
 }
 
 function Choice({ name, legend, hint, register, error }: { name: string; legend: string; hint?: string; register: ReturnType<typeof useForm<GearCheckValues>>["register"]; error?: string }) {
@@ -45,7 +52,7 @@ function Choice({ name, legend, hint, register, error }: { name: string; legend:
   );
 }
 
-export function AckForm({ orderId, round, workDate, climbing, forWorker, onDone }: Props) {
+export function AckForm({ orderId, round, orderNumber, userId, workDate, climbing, forWorker, onDone, onQueued }: Props) {
   const uid = useId();
   const [msg, setMsg] = useState<string | null>(null);
   const schema = useMemo(() => gearCheckSchema({ workDate, climbing }), [workDate, climbing]);
@@ -65,11 +72,20 @@ export function AckForm({ orderId, round, workDate, climbing, forWorker, onDone 
 
   const submit = handleSubmit(async (gearCheck) => {
     setMsg(null);
-    const r = await sendJson<{ error?: string; issues?: { field: string; message: string }[] }>(`/api/briefings/${orderId}/ack`, "POST", {
-      round,
-      gearCheck,
-      ...(forWorker ? { workerId: forWorker.id } : {}),
+    const out = await submitAction({
+      kind: "briefing.ack",
+      userId,
+      orderId,
+      label: forWorker ? `${forWorker.name}'s gear check and acknowledgement, ${orderNumber}` : `Gear check and acknowledgement, ${orderNumber}`,
+      url: `/api/briefings/${orderId}/ack`,
+      method: "POST",
+      body: { round, gearCheck, ...(forWorker ? { workerId: forWorker.id } : {}) },
     });
+    if (out.kind === "queued") {
+      onQueued?.();
+      return;
+    }
+    const r = { ok: out.kind === "sent", body: out.result.body as { error?: string; issues?: { field: string; message: string }[] } | null };
     if (!r.ok) {
       for (const i of r.body?.issues ?? []) {
         try {

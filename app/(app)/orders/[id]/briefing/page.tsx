@@ -30,6 +30,7 @@ export default async function BriefingPage({ params }: { params: Promise<{ id: s
   return (
     <BriefingScreen
       initial={{ ...view, mode, me: user.workerId ?? null }}
+      userId={user.role === "lineworker" ? user.id : null}
       backHref={backHref}
       figures={<BriefingFigures conn={db()} organisationId={user.organisationId} orderId={Number(raw)} isLead={mode === "lead"} />}
     />
