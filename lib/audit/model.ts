@@ -91,8 +91,12 @@ function parse(detail: unknown): Detail {
 const str = (v: unknown) => (typeof v === "string" || typeof v === "number" ? String(v) : null);
 const human = (code: string) => code.replace(/_/g, " ");
 
-/** One sentence for one audit row; never raw JSON. */
-export function auditSentence(row: {
+/** One sentence for one audit row; never raw JSON. A quoted reason's own full stop ends it. */
+export function auditSentence(row: Parameters<typeof sentence>[0]): string {
+  return sentence(row).replace(/([.!?])”\.$/, "$1”");
+}
+
+function sentence(row: {
   action: string;
   actor_name?: string | null;
   entity?: string | null;
@@ -132,8 +136,8 @@ export function auditSentence(row: {
   if (worker) bits.push(worker);
   if (order) bits.push(`on ${order}`);
   else if (row.entity === "work_order" && row.entity_id) bits.push(`(order ${row.entity_id})`);
-  if (d.reason) bits.push(`: “${String(d.reason)}”`);
-  return `${who} ${verb}${bits.length ? " " + bits.join(" ").replace(" :", ":") : ""}.`;
+  const reason = d.reason ? `: “${String(d.reason)}”` : "";
+  return `${who} ${verb}${bits.length ? " " + bits.join(" ") : ""}${reason}.`;
 }
 
 /** The action's words for the filter list. */

@@ -57,3 +57,20 @@ describe("day sheet lines", () => {
     }
   });
 });
+
+describe("audit sentences (issue 18, point 11)", () => {
+  it("an override names its rule in words and a quoted reason ends the sentence once", async () => {
+    const { auditSentence } = await import("@/lib/audit/model");
+    expect(auditSentence({ action: "override.create", actor_name: "Glenn Harrower", detail: { rule: "CLIMB_CERT", order: "WO-26-0102", reason: "Card to HR by noon." } })).toBe(
+      "Glenn Harrower overrode Climbing qualification on WO-26-0102: “Card to HR by noon.”",
+    );
+    expect(auditSentence({ action: "override.create", actor_name: "Glenn Harrower", detail: { rule: "LOCATE", order: "WO-26-0104", reason: "Re-mark called in" } })).toBe(
+      "Glenn Harrower overrode Locate ticket on WO-26-0104: “Re-mark called in”.",
+    );
+  });
+  it("actions without a sentence of their own still read as words, never codes", async () => {
+    const { auditSentence } = await import("@/lib/audit/model");
+    expect(auditSentence({ action: "rotation.create", actor_name: "Corinne Maddox", detail: {} })).toBe("Corinne Maddox created an on-call rotation.");
+    expect(auditSentence({ action: "time_record.delete", actor_name: "Nadine Okonkwo", detail: { reason: "Entered twice" } })).toBe("Nadine Okonkwo deleted a time record: “Entered twice”.");
+  });
+});
