@@ -238,12 +238,13 @@ describe("progress and cancel", () => {
 });
 
 describe("the time limit covers the whole fill", () => {
-  it("leaves the explanations 15 % (at most 2 s) and the solver at least 30 % after the model (arithmetic of solverDeadline)", async () => {
+  it("leaves the explanations 15 % (at most 2 s) and the solver at least half the limit after the model (arithmetic of solverDeadline)", async () => {
     const { solverDeadline } = await import("@/lib/fill/fill");
     const s = (timeLimitSeconds: number) => ({ timeLimitSeconds }) as never;
     expect(solverDeadline({ t0: 0, s: s(10) }, 1600)).toBe(8500); // 10 s − 1.5 s
     expect(solverDeadline({ t0: 0, s: s(60) }, 1600)).toBe(58_000); // 60 s − 2 s cap
-    expect(solverDeadline({ t0: 0, s: s(10) }, 7000)).toBe(10_000); // a slow start: 7 s + 3 s
+    expect(solverDeadline({ t0: 0, s: s(10) }, 7000)).toBe(12_000); // a slow start: 7 s + 5 s
+    expect(solverDeadline({ t0: 0, s: s(10) }, 3000)).toBe(8500); // 3 s + 5 s is earlier than 8.5 s
   });
 });
 
