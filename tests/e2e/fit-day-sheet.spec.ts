@@ -30,14 +30,16 @@ test("the day sheet shows every order of the day with its crew and the caution, 
       for (const s of o.seats) if (s.assignment) await expect(card).toContainText(nameOf.get(s.assignment.workerId)!);
     }
   }
-  await expect(page.getByRole("note").first()).toContainText("does not decide");
+  // The caution (PRODUCT.md "Safety posture"), with the manufacturer's ratings the sheet adds.
+  await expect(page.getByTestId("day-sheet-caution")).toContainText("does not decide");
+  await expect(page.getByTestId("day-sheet-caution")).toContainText("manufacturer's ratings");
 
   // Printed: the bar and the controls are hidden; the orders and the caution are not.
   await page.emulateMedia({ media: "print" });
   await expect(page.getByRole("navigation", { name: "Main" })).toBeHidden();
   await expect(page.getByTestId("day-sheet-print")).toBeHidden();
   await expect(page.locator('[data-testid^="sheet-order-"]').first()).toBeVisible();
-  await expect(page.getByRole("note").first()).toBeVisible();
+  await expect(page.getByTestId("day-sheet-caution")).toBeVisible();
   await page.emulateMedia({ media: "screen" });
 
   // The PDF link answers a PDF.

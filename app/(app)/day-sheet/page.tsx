@@ -61,8 +61,10 @@ export default async function DaySheetPage({ searchParams }: { searchParams: Pro
         <p className="text-xs font-bold uppercase tracking-widest text-copper">Day sheet</p>
         <h1 className="text-xl font-extrabold tracking-tight">{sheet.dayWords}</h1>
       </header>
-      <SafetyNote className="mb-4" />
-      <p className="sr-only">{DAY_SHEET_CAUTION}</p>
+      {/* The sheet's own caution, which also names the manufacturer's ratings (the PDF carries the same words). */}
+      <p className="mb-4 rounded-md border border-rule bg-paper-200 px-3 py-2 text-xs text-ink-700" role="note" data-testid="day-sheet-caution">
+        <strong>{DAY_SHEET_CAUTION.split(". ")[0]}.</strong> {DAY_SHEET_CAUTION.split(". ").slice(1).join(". ")}
+      </p>
 
       {sheet.yards.map((y) => (
         <section key={y.code} className="sheet-yard mb-6" aria-labelledby={`yard-${y.code}`} data-testid={`sheet-yard-${y.code}`}>
