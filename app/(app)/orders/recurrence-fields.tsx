@@ -6,10 +6,8 @@ import { NTH_LABEL, WEEKDAYS, WEEKDAY_LABEL, buildRrule, type RepeatForm, type W
 import { RecurrencePreview } from "./recurrence-preview";
 
 interface Props {
-  value: RepeatForm;
-  onChange: (v: RepeatForm) => void;
-  exdates: string[];
-  onExdatesChange: (d: string[]) => void;
+  /** The rule being edited and its skipped dates, with their setters. */
+  repeat: { value: RepeatForm; set: (v: RepeatForm) => void; exdates: string[]; setExdates: (d: string[]) => void };
   /** The order's start (yard wall clock) — the series' first start. */
   start: string;
   /** Length in minutes, for the preview's end times. */
@@ -35,7 +33,8 @@ const KIND_LABEL: Record<RepeatForm["kind"], string> = {
  * RRULE, skipped dates, and the next occurrences computed here with the same function the
  * server uses to materialise them.
  */
-export function RecurrenceFields({ value, onChange, exdates, onExdatesChange, start, durationMinutes, timezone, previewFrom, allowNone, error }: Props) {
+export function RecurrenceFields({ repeat, start, durationMinutes, timezone, previewFrom, allowNone, error }: Props) {
+  const { value, set: onChange, exdates, setExdates: onExdatesChange } = repeat;
   const set = (patch: Partial<RepeatForm>) => onChange({ ...value, ...patch });
   const rrule = buildRrule(value);
 

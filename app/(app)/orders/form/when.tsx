@@ -11,7 +11,7 @@ export function WhenSection({
   form,
   mode,
   yard,
-  repeat: { value: repeat, set: setRepeat, exdates, setExdates },
+  repeat: rec,
   durationMinutes,
   today,
 }: {
@@ -42,7 +42,7 @@ export function WhenSection({
           error={err("start")}
           {...register("start", {
             onChange: (e) => {
-              if (mode !== "edit" && repeat.kind === "none") setRepeat(defaultRepeatForm(String(e.target.value).slice(0, 10)));
+              if (mode !== "edit" && rec.value.kind === "none") rec.set(defaultRepeatForm(String(e.target.value).slice(0, 10)));
             },
           })}
         />
@@ -50,10 +50,7 @@ export function WhenSection({
       </div>
       {mode !== "edit" && yard && (
         <RecurrenceFields
-          value={repeat}
-          onChange={setRepeat}
-          exdates={exdates}
-          onExdatesChange={setExdates}
+          repeat={rec}
           start={start}
           durationMinutes={durationMinutes}
           timezone={yard.timezone}
