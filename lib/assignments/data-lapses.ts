@@ -18,7 +18,10 @@ export interface CrewChangeBy {
 
 /**
  * Lapses the order's live overrides given for another crew than `hash`, records who changed
- * what, and tells each override's author. Returns how many lapsed.
+ * what, and tells each override's author. Returns how many lapsed. The caller holds the
+ * order's lock (its crew write, or the reply's booking_seq bump), which an override's write
+ * takes too; no FOR UPDATE here, as one over this join would also lock the users, workers and
+ * yards rows it reads, out of the order the crew writes lock workers in.
  */
 export async function lapseOverrides(trx: Knex.Transaction, orderId: number, hash: string, by: CrewChangeBy): Promise<number> {
   const rows = await trx("overrides as v")
@@ -29,7 +32,6 @@ export async function lapseOverrides(trx: Knex.Transaction, orderId: number, has
     .where("v.work_order_id", orderId)
     .whereNull("v.lapsed_at")
     .whereNot("v.crew_hash", hash)
-    .forUpdate()
     .select(
       "v.id",
       "v.rule",
