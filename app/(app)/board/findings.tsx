@@ -5,6 +5,7 @@ import type { OverrideView } from "@/lib/board/model";
 import type { Finding } from "@/lib/rules/types";
 import { Badge } from "@/components/status";
 import { fixHint } from "@/lib/board/fix-hints";
+import { ruleName } from "@/lib/rules/rule-labels";
 
 export function FindingRow({
   finding: f,
@@ -30,7 +31,8 @@ export function FindingRow({
         ) : (
           <Badge tone="warn">Warn</Badge>
         )}
-        <span className="font-extrabold">{f.rule}</span>
+        <span className="font-extrabold">{ruleName(f.rule)}</span>
+        <span className="text-[11px] text-ink-500">{f.rule}</span>
         {workerName && <span className="font-semibold text-ink-700">· {workerName}</span>}
         {f.locked && <span className="font-semibold text-block">· locked, no override</span>}
       </div>
