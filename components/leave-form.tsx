@@ -15,7 +15,7 @@ export interface LeaveWorker {
 }
 
 interface Props {
-  /** Workers the user may enter time off for; with one (or `workerId`) there is no picker. */
+  /** Workers the user may enter leave for; with one (or `workerId`) there is no picker. */
   workers?: LeaveWorker[];
   workerId?: number;
   /** A lineworker asks (a supervisor decides); a dispatcher or supervisor enters it approved. */
@@ -53,7 +53,7 @@ export function LeaveForm({ workers = [], workerId, asks, defaults = { start: ""
       ? "Asked. A supervisor approves or refuses it; you see the answer here."
       : `Entered for ${save.data.workerName}. Boards re-check at once.`
     : null;
-  const title = asks ? "Ask for time off" : "Enter time off";
+  const title = asks ? "Ask for leave" : "Enter leave";
 
   return (
     <form

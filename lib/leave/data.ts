@@ -103,7 +103,7 @@ export async function getUnavailability(db: Q, organisationId: number, id: numbe
 
 const KIND_WORD: Record<string, string> = { leave: "leave", training: "training", sickness: "sickness" };
 
-/** Throws 409 when the worker already has requested or approved time off overlapping [start, end). */
+/** Throws 409 when the worker already has requested or approved leave overlapping [start, end). */
 async function refuseOverlap(trx: Knex.Transaction, worker: { id: number; name: string; tz: string }, start: number, end: number, exceptId?: number) {
   const q = trx("unavailability")
     .where({ worker_id: worker.id })
@@ -149,7 +149,7 @@ async function lockWorker(trx: Knex.Transaction, org: number, workerId: number) 
 export async function createUnavailability(trx: Knex.Transaction, actor: UnavailabilityActor, input: UnavailabilityInput) {
   const org = actor.organisationId;
   const asks = actor.role === "lineworker";
-  if (asks && input.workerId !== actor.workerId) throw new ApiError(403, "You can ask for time off only for yourself.");
+  if (asks && input.workerId !== actor.workerId) throw new ApiError(403, "You can ask for leave only for yourself.");
   // The worker row lock serialises two requests for the same person (overlap check + insert).
   const worker = await lockWorker(trx, org, input.workerId);
   const start = instant(input.start, worker.tz, "start");
@@ -185,7 +185,7 @@ export async function updateUnavailability(trx: Knex.Transaction, actor: Unavail
     .where({ "u.id": id, "w.organisation_id": org })
     .first("u.*");
   if (!cur) throw new ApiError(404, "No such entry.");
-  if (patch.status && actor.role !== "supervisor") throw new ApiError(403, "Only a supervisor approves or refuses time off.");
+  if (patch.status && actor.role !== "supervisor") throw new ApiError(403, "Only a supervisor approves or refuses leave.");
   const editing = patch.start !== undefined || patch.end !== undefined || patch.kind !== undefined || patch.note !== undefined;
   if (editing && !["supervisor", "hr"].includes(actor.role)) throw new ApiError(403, "Only HR or a supervisor changes entries.");
   const worker = await lockWorker(trx, org, Number(cur.worker_id));

@@ -85,7 +85,7 @@ export default async function LeavePage() {
 
   return (
     <>
-      <PageHeader eyebrow="Leave" title={own ? "My time off" : "Leave, training and sickness"} />
+      <PageHeader eyebrow="Leave" title={own ? "My leave" : "Leave, training and sickness"} />
       <div className="grid gap-5 lg:grid-cols-[3fr_2fr]">
         <div className="space-y-4">
           <List title="Waiting for a decision" list={pending} empty={canDecide ? "Nothing to decide." : "No open requests."} />
@@ -94,7 +94,7 @@ export default async function LeavePage() {
         </div>
         {canEnter && (
           <section className="card h-fit p-4">
-            <h2 className="mb-1 text-lg font-extrabold tracking-tight">{own ? "Ask for time off" : "Enter time off"}</h2>
+            <h2 className="mb-1 text-lg font-extrabold tracking-tight">{own ? "Ask for leave" : "Enter leave"}</h2>
             <p className="mb-3 text-sm text-ink-700">
               {own ? "Your request waits for a supervisor." : "Entered here it counts as approved at once."} Overlapping entries for one person are refused.
             </p>

@@ -118,7 +118,7 @@ export default async function MyWeekPage() {
 
       <section aria-labelledby="leave-h" className="mt-8">
         <h2 id="leave-h" className="mb-2 text-base font-bold">
-          Time off
+          Leave
         </h2>
         {upcomingLeave.length > 0 && (
           <ul className="mb-3 space-y-2">
