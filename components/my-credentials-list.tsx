@@ -19,7 +19,7 @@ export function MyCredentialsList({ workerId, current, pending, types, today }: 
   const [done, setDone] = useState<string | null>(null);
   const waiting = new Map(pending.map((p) => [p.typeId, p]));
   const sorted = [...current].sort((a, b) => (a.daysLeft ?? 1e9) - (b.daysLeft ?? 1e9));
-  if (!sorted.length && !pending.length) return <p className="card p-4 text-sm text-ink-500">No qualifications on file. Ask HR.</p>;
+  if (!sorted.length && !pending.length) return <p className="card p-4 text-sm text-ink-500">No credentials on file. Ask HR.</p>;
   return (
     <>
       {done && (

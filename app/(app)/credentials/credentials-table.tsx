@@ -118,7 +118,7 @@ export function CredentialsTable({ rows, yards, types, canEdit, initial }: Props
           <YardOptions yards={yards} by="code" all="All yards" withCode />
         </SelectField>
         <SelectField id="cred-type" label="Qualification" value={qualification} onChange={(e) => setQualification(e.target.value)}>
-          <option value="">All qualifications</option>
+          <option value="">All qualification types</option>
           {types.map((t) => (
             <option key={t.code} value={t.code}>
               {t.name}

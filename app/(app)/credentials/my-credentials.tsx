@@ -20,7 +20,7 @@ export async function MyCredentials({ workerId, organisationId }: { workerId: nu
     <section aria-labelledby="my-creds-h" className="mt-8">
       <div className="mb-2 flex flex-wrap items-baseline justify-between gap-2">
         <h2 id="my-creds-h" className="text-base font-bold">
-          My qualifications
+          My credentials
         </h2>
         <Link href={`/credentials/${workerId}`} className="text-sm font-semibold text-copper hover:underline">
           History

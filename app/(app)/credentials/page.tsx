@@ -26,7 +26,7 @@ export default async function CredentialsPage({ searchParams }: { searchParams: 
   const view = (CREDENTIAL_VIEWS as readonly string[]).includes(sp.view ?? "") ? (sp.view as CredentialView) : "all";
   return (
     <>
-      <PageHeader eyebrow="Credentials" title="Qualifications on file">
+      <PageHeader eyebrow="Credentials" title="Credentials on file">
         {canEdit && <SendReminders />}
       </PageHeader>
       <CredentialTabs active="list" canEdit={canEdit} />

@@ -23,7 +23,7 @@ interface ListProps {
   formFor: (c: CredentialDetail) => ReactNode;
 }
 
-/** md and up: the worker's current qualifications as a table. */
+/** md and up: the worker's current credentials as a table. */
 export function CurrentTable({ current, mode, renewButton, openForm, formFor }: ListProps) {
   return (
     <div className="card hidden overflow-x-auto md:block">

@@ -99,7 +99,7 @@ export function WorkerDesk({ worker, current, pending, types, today, mode }: Pro
       <section aria-labelledby="current-h">
         <div className="mb-2 flex flex-wrap items-center justify-between gap-2">
           <h2 id="current-h" className="text-base font-bold">
-            Current qualifications
+            Current credentials
           </h2>
           {mode === "hr" && missing.length > 0 && open !== "add" && (
             <button type="button" className="btn-quiet" onClick={() => setOpen("add")}>
@@ -113,7 +113,7 @@ export function WorkerDesk({ worker, current, pending, types, today, mode }: Pro
           </div>
         )}
         {current.length === 0 ? (
-          <p className="card p-4 text-sm text-ink-500">No qualifications on file.</p>
+          <p className="card p-4 text-sm text-ink-500">No credentials on file.</p>
         ) : (
           <>
             <CurrentTable current={current} mode={mode} renewButton={renewButton} openForm={wide && typeof open === "number" ? open : null} formFor={formFor} />
