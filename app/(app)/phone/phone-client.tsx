@@ -165,7 +165,7 @@ export function PhoneClient({ owners, initialPhone, fromNumber }: { owners: Phon
             <p className="text-sm font-extrabold">Gaffline dispatch</p>
             <p className="text-[11px] text-ink-500">{fromNumber || "crew texts"}</p>
           </header>
-          <ol ref={listRef} className="flex-1 space-y-2 overflow-y-auto px-3 py-3" role="log" aria-live="polite" aria-label="Texts" data-testid="phone-texts">
+          <ol ref={listRef} className="flex-1 space-y-2 overflow-y-auto px-3 py-3" aria-live="polite" aria-label="Texts" data-testid="phone-texts">
             {loaded && texts.length === 0 && <li className="pt-10 text-center text-xs text-ink-500">No texts on this phone yet. Send crews from the Board.</li>}
             {texts.map((t) => {
               const mine = t.source === "inbound";
