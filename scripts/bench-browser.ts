@@ -275,8 +275,14 @@ async function main() {
   } finally {
     for (const m of made) await m.page.request.delete(`/api/assignments/${m.id}?version=1`, { headers: { origin: base } }).catch(() => {});
     await browser.close().catch(() => {});
+    // SIGTERM, then SIGKILL after 5 s: a server still holding streams open does not linger.
     try {
       process.kill(-server.pid!, "SIGTERM");
+      for (let i = 0; i < 50; i++) {
+        await new Promise((r) => setTimeout(r, 100));
+        process.kill(-server.pid!, 0);
+      }
+      process.kill(-server.pid!, "SIGKILL");
     } catch {
       /* gone */
     }
