@@ -56,6 +56,8 @@ async function reload(userId: number) {
 }
 
 let running: Promise<FlushReport> | null = null;
+/** Every answer a run got, by key: the form that entered an action finds its answer here, whichever run sent it. */
+const answers = new Map<string, { kind: "sent" | "refused"; result: SendResult }>();
 
 /** Sends this user's queue now (after a run in progress, if any). */
 export async function sendQueue(userId: number): Promise<FlushReport> {
@@ -64,6 +66,8 @@ export async function sendQueue(userId: number): Promise<FlushReport> {
   running = flush(store(), transport, userId);
   try {
     const report = await running;
+    for (const s of report.sent) answers.set(s.action.key, { kind: "sent", result: s.result });
+    for (const r of report.refused) answers.set(r.action.key, { kind: "refused", result: r.result });
     const delivered = [...report.sent, ...report.refused].filter((d) => !foreground.has(d.action.key));
     set({ stopped: report.stopped, delivered: delivered.length ? [...state.delivered, ...delivered].slice(-8) : state.delivered });
     return report;
@@ -93,14 +97,15 @@ export async function submitAction(input: ActionInput): Promise<Outcome> {
   if (typeof navigator !== "undefined" && navigator.onLine === false) return { kind: "queued", action, reason: "offline" };
   foreground.add(action.key);
   try {
+    // Another run (the page's own, on a timer or the online event) may have sent it first.
     const report = await sendQueue(input.userId);
-    const sent = report.sent.find((s) => s.action.key === action.key);
-    if (sent) return { kind: "sent", result: sent.result };
-    const refused = report.refused.find((s) => s.action.key === action.key);
-    if (refused) {
+    const answer = answers.get(action.key);
+    answers.delete(action.key);
+    if (answer?.kind === "sent") return { kind: "sent", result: answer.result };
+    if (answer?.kind === "refused") {
       await store().remove(action.seq);
       await reload(input.userId);
-      return { kind: "refused", result: refused.result };
+      return { kind: "refused", result: answer.result };
     }
     foreground.delete(action.key); // it waits in the queue: announce it when it goes
     return { kind: "queued", action, reason: report.stopped ?? "offline" };
