@@ -64,10 +64,16 @@ test("drag a bucket truck onto a bucket order: it is seated and the EQUIPMENT bl
 
 test("an out-of-service truck cannot be picked up onto an order", async ({ page }) => {
   await signIn(page, "dispatcher");
-  // N-330 is out of service in the demo (boom hydraulic leak).
+  // N-330 is out of service in the demo (boom hydraulic leak): its card is not draggable, so a
+  // drop starts nothing (no booking request) and there is nothing to wait for afterwards.
+  await expect(page.getByTestId("pool-truck-N-330")).toHaveAttribute("aria-disabled", "true");
+  const bookings: string[] = [];
+  page.on("request", (r) => {
+    if (r.url().includes("/api/equipment-assignments") && r.method() !== "GET") bookings.push(r.url());
+  });
   const d = await drag(page, '[data-testid="pool-truck-N-330"]', `[data-testid="eqadd-${ORDER}"]`);
   await d.drop();
-  await page.waitForTimeout(500);
+  expect(bookings).toEqual([]);
   await expect(page.getByTestId(`eqadd-${ORDER}`)).not.toContainText("N-330");
   await expect(page.getByTestId("pool-truck-N-330")).toContainText("Out of service");
 });
