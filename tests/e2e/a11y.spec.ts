@@ -69,12 +69,17 @@ async function stateFor(browser: Browser, role: Role): Promise<State> {
 /** The href of the first link on `from` whose path matches `pattern` (the detail pages' ids come from the pages themselves). */
 async function firstLink(page: Page, from: string, pattern: RegExp, text?: RegExp): Promise<string> {
   await page.goto(from);
-  const hrefs = await page.locator("a[href]").evaluateAll((as) =>
-    as.map((a) => ({ href: new URL((a as HTMLAnchorElement).href).pathname, text: a.closest("tr, li, article")?.textContent ?? a.textContent ?? "" })),
-  );
-  const hit = hrefs.find((h) => pattern.test(h.href) && (!text || text.test(h.text)));
-  if (!hit) throw new Error(`no link matching ${pattern} on ${from}`);
-  return hit.href;
+  let found = "";
+  // Retried until the page's links are there (client tables fill in after hydration).
+  await expect(async () => {
+    const hrefs = await page.locator("a[href]").evaluateAll((as) =>
+      as.map((a) => ({ href: new URL((a as HTMLAnchorElement).href).pathname, text: a.closest("tr, li, article")?.textContent ?? a.textContent ?? "" })),
+    );
+    const hit = hrefs.find((h) => pattern.test(h.href) && (!text || text.test(h.text)));
+    expect(hit, `a link matching ${pattern} on ${from}`).toBeTruthy();
+    found = hit!.href;
+  }).toPass({ timeout: 20_000 });
+  return found;
 }
 
 /** The pages a role reaches: its nav links (read from the page) plus the detail pages. */
