@@ -112,7 +112,7 @@ export function LiftFiguresView({
       </table>
       {over && (
         <p className="mt-2 rounded-md bg-block-bg px-3 py-2 text-sm font-semibold text-block" role="alert">
-          ⛔ A part is over its working load limit: the board blocks this order (RIGGING) until the plan changes.
+          ✖ A part is over its working load limit: the board blocks this order (RIGGING) until the plan changes.
         </p>
       )}
       <p className="mt-1 text-xs text-ink-500">{figures.source}</p>

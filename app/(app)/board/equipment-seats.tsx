@@ -24,7 +24,7 @@ function Booked({ b, e, day }: { b: EquipmentBooking; e: Equipment | undefined; 
     >
       {e?.unitNumber ?? `#${b.equipmentId}`}
       <span className="font-semibold text-ink-500">{e ? EQUIPMENT_KIND_LABEL[e.kind] : ""}</span>
-      {test === "overdue" && <span className="text-block">⛔ test overdue</span>}
+      {test === "overdue" && <span className="text-block">✖ test overdue</span>}
     </span>
   );
 }
