@@ -10,10 +10,10 @@ import { STATUS_LABEL, type OrderStatus } from "@/lib/orders/status";
 import { ruleName } from "@/lib/rules/rule-labels";
 import { listYards, type Yard } from "@/lib/yards/data";
 import { tomorrowIn } from "@/lib/time/days";
+import { zoneAbbreviation } from "@/lib/time/zoned-format";
 import { ASSIGNMENT_STATUS_WORDS, positionLabel, type DaySheet, type SheetOrder, type SheetYard } from "./model";
 
-const zoneAbbr = (iso: string | number | Date, timezone: string) =>
-  new Intl.DateTimeFormat("en-US", { timeZone: timezone, timeZoneName: "short" }).formatToParts(new Date(iso)).find((p) => p.type === "timeZoneName")?.value ?? timezone;
+const zoneAbbr = zoneAbbreviation;
 
 const hm = (iso: string, timezone: string) =>
   new Intl.DateTimeFormat("en-US", { timeZone: timezone, hour: "2-digit", minute: "2-digit", hourCycle: "h23" }).format(new Date(iso));
