@@ -11,7 +11,7 @@
 // cover both.
 import knex, { type Knex } from "knex";
 import { dbConfig } from "../knexfile";
-import { drainOnce, enqueue, type OutboxInput } from "../lib/notify/outbox";
+import { drainOnce, enqueue, type OutboxInput } from "../lib/notify/data-outbox";
 import { closeEmailTransport } from "../lib/notify/email";
 
 function arg(name: string, fallback: number) {

@@ -11,7 +11,7 @@
 //      autocannon against `next start` on database gaffline_bench (created, migrated, seeded
 //      and loaded with scripts/bench/load-large.ts). Needs a build (`.next`, or --dist DIR);
 //      skipped with a message when there is none;
-//   4. the notification outbox: drainOnce's rate on stubbed providers, when lib/notify/outbox.ts
+//   4. the notification outbox: drainOnce's rate on stubbed providers, when lib/notify/data-outbox.ts
 //      has it.
 // Prints a table and writes it as JSON to bench/results/<timestamp>.json and latest.json.
 // Aims: fill ≤ 10 s at ≤ 1 % gap; full check < 50 ms; re-check < 2 ms; board ≤ 3× and drop
@@ -346,11 +346,11 @@ async function benchApi() {
 async function benchDrain() {
   let outbox: Record<string, unknown>;
   try {
-    outbox = await import("../lib/notify/outbox");
+    outbox = await import("../lib/notify/data-outbox");
   } catch {
-    return { measured: false, note: "not measured: lib/notify/outbox.ts is not there" };
+    return { measured: false, note: "not measured: lib/notify/data-outbox.ts is not there" };
   }
-  if (typeof outbox.drainOnce !== "function" || typeof outbox.enqueue !== "function") return { measured: false, note: "not measured: lib/notify/outbox.ts has no drainOnce" };
+  if (typeof outbox.drainOnce !== "function" || typeof outbox.enqueue !== "function") return { measured: false, note: "not measured: lib/notify/data-outbox.ts has no drainOnce" };
   const drainOnce = outbox.drainOnce as (db: unknown, o: Record<string, unknown>) => Promise<{ claimed: number; sent: number }>;
   const enqueue = outbox.enqueue as (db: unknown, rows: Record<string, unknown>[]) => Promise<number>;
   const db = knex(dbConfig({ database: opts.database }));

@@ -5,7 +5,7 @@ import "@/lib/server-only";
 import type { Knex } from "knex";
 import { fmtDate, fmtDateTimeZone } from "@/lib/format";
 import { appPublicUrl } from "@/lib/notify/config";
-import { enqueue, type OutboxInput } from "@/lib/notify/outbox";
+import { enqueue, type OutboxInput } from "@/lib/notify/data-outbox";
 import { addNotice } from "@/lib/notices/data";
 import { changeWords, lapseWords, type CrewChange } from "@/lib/notices/model";
 

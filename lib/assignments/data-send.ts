@@ -32,7 +32,7 @@ import { prepareBoardDay } from "@/lib/board/data-extras";
 import { appPublicUrl } from "@/lib/notify/config";
 import { jobEmail, jobSms, removalSms, type JobFacts, type OutboundKind } from "@/lib/notify/wording";
 import { unitsForOrders } from "@/lib/equipment/data";
-import { enqueue, pokeDelivery, type OutboxInput } from "@/lib/notify/outbox";
+import { enqueue, pokeDelivery, type OutboxInput } from "@/lib/notify/data-outbox";
 
 const TX = { isolationLevel: "read committed" as const };
 

@@ -20,7 +20,7 @@ import { boardEvent } from "@/lib/events/data";
 import { appPublicUrl } from "@/lib/notify/config";
 import { assertAttachable } from "@/lib/files/data";
 import { toGsm7 } from "@/lib/notify/wording";
-import { enqueue, type OutboxInput } from "@/lib/notify/outbox";
+import { enqueue, type OutboxInput } from "@/lib/notify/data-outbox";
 import type { Role } from "@/lib/users/roles";
 import { POSITION_LABEL } from "@/lib/format";
 import {

@@ -2,7 +2,7 @@
 // instrumentation.ts. Nothing here assumes a single instance: the outbox is claimed row by row
 // (SKIP LOCKED), and a daily job claims its day in job_claims before it runs.
 import { db } from "@/lib/db";
-import { startDeliveryLoop } from "@/lib/notify/outbox";
+import { startDeliveryLoop } from "@/lib/notify/data-outbox";
 import { runDailyReminders } from "@/lib/credentials/data-reminders";
 import { runDailyGearReminders } from "@/lib/gear/data-reminders";
 

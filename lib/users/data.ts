@@ -6,7 +6,7 @@ import { ApiError } from "@/lib/api/http";
 import { revokeUserSessions } from "@/lib/users/data-sessions";
 import type { Role } from "@/lib/users/roles";
 import { appPublicUrl } from "@/lib/notify/config";
-import { enqueue } from "@/lib/notify/outbox";
+import { enqueue } from "@/lib/notify/data-outbox";
 import type { UserCreate, UserPatch } from "@/lib/users/model";
 import { audit, type Actor } from "@/lib/audit/data";
 import type { UserView } from "./model";

@@ -84,7 +84,7 @@ describe("Send crews through a provider failure and outage", () => {
       for (const r of rows.filter((x: { channel: string }) => x.channel === "sms")) expect(r.attempts).toBeGreaterThanOrEqual(3);
       for (const r of rows.filter((x: { channel: string }) => x.channel === "email")) expect(r.attempts).toBeGreaterThanOrEqual(2);
 
-      // No fixed wait: every row is settled (sent), and lib/notify/outbox.ts only sends rows that
+      // No fixed wait: every row is settled (sent), and lib/notify/data-outbox.ts only sends rows that
       // are queued or sending, so no duplicate can still come; wait for the fakes to list them all.
       await waitFor("6 texts and 6 mails at the fakes", async () => {
         const t = (await fakeTexts()).filter((m) => m.source === "api" && numbers.some((n) => m.body.includes(n))).length;

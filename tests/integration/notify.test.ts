@@ -18,7 +18,7 @@ import {
   waitFor,
   type MadeDay,
 } from "../support/notify";
-import { drainOnce, enqueue } from "@/lib/notify/outbox";
+import { drainOnce, enqueue } from "@/lib/notify/data-outbox";
 import { closeEmailTransport } from "@/lib/notify/email";
 import { smsAdapter } from "@/lib/notify/sms";
 
@@ -113,7 +113,7 @@ describe("Send crews", () => {
     await delivered(d);
     await waitFor("3 texts and 3 mails at the fakes", async () => (await textsAbout(d.number)).length >= 3 && (await mailsAbout(d.number)).length >= 3);
     // No fixed wait: a notification is only ever sent again while its row is queued or sending
-    // (lib/notify/outbox.ts claims rows in those states only), so once every row of the order is
+    // (lib/notify/data-outbox.ts claims rows in those states only), so once every row of the order is
     // settled nothing more can arrive, and a provider call completes before its row says sent.
     await waitFor("every notification of the order settled", async () => {
       const left = await db("notifications").whereIn("assignment_id", d.assignments.map((a) => a.id)).whereIn("state", ["queued", "sending"]).count({ n: "*" }).first();

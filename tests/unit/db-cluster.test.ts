@@ -5,7 +5,7 @@
 // 1180 ER_ERROR_DURING_COMMIT, 1969 ER_STATEMENT_TIMEOUT (max_statement_time exceeded).
 import { describe, expect, it } from "vitest";
 import { contentionKind, dbHosts, DbContentionError, isDbUnavailable, statementTimeoutMs, withConflictRetry } from "@/lib/db";
-import { deliveryPartition } from "@/lib/notify/outbox";
+import { deliveryPartition } from "@/lib/notify/data-outbox";
 
 describe("DB_HOSTS", () => {
   it("reads host:port pairs in order, own node first", () => {

@@ -1,3 +1,4 @@
+import "@/lib/server-only";
 // The notification outbox: rows are written in the same transaction as the change they tell
 // about, and any number of app instances deliver them.
 //
