@@ -5,7 +5,7 @@ import { z } from "zod";
 import { db, isDbUnavailable } from "@/lib/db";
 import { clientAddress } from "./client-address";
 import { recordSignIn, signInGate } from "./rate-limit";
-import { createSession, liveSessionUser, revokeSession, SESSION_MAX_AGE_SECONDS } from "@/lib/users/data-sessions";
+import { activeUserByEmail, createSession, liveSessionUser, revokeSession, SESSION_MAX_AGE_SECONDS } from "@/lib/users/data-sessions";
 import type { Role } from "@/lib/users/roles";
 
 export const signInSchema = z.object({
@@ -52,7 +52,7 @@ export const authOptions: NextAuthOptions = {
         const gate = await signInGate(conn, email, ip);
         if (!gate.ok) throw new Error(TOO_MANY(gate.retryAfterSeconds));
         if (gate.holdMs) await new Promise((r) => setTimeout(r, gate.holdMs));
-        const user = await conn("users").where({ email, active: true }).first();
+        const user = await activeUserByEmail(conn, email);
         // Compare against a fixed hash when the account is unknown, so timing does not tell.
         const ok = await bcrypt.compare(password, user?.password_hash ?? dummyHash());
         await recordSignIn(conn, email, ip, Boolean(user && ok));

@@ -3,6 +3,8 @@ import { redirect } from "next/navigation";
 import { ApiError } from "@/lib/api/http";
 import { db } from "@/lib/db";
 import { authOptions, type SessionUser } from "./options";
+import { userYardIds } from "@/lib/users/data-sessions";
+import { yardNameById } from "@/lib/yards/data";
 import { START_PAGE, type Role } from "@/lib/users/roles";
 
 export type { SessionUser };
@@ -57,8 +59,7 @@ const ALL_YARDS: Role[] = ["supervisor", "admin"];
  */
 export async function editableYards(user: SessionUser): Promise<number[] | "all"> {
   if (ALL_YARDS.includes(user.role) || user.role !== "dispatcher") return "all";
-  const rows = await db()("user_yards").where({ user_id: user.id }).pluck("yard_id");
-  return rows.map(Number);
+  return userYardIds(db(), user.id);
 }
 
 /** Whether the user may see phone, e-mail and texts of a yard's workers. */
@@ -76,7 +77,7 @@ export async function canAccessYard(user: SessionUser, yardId: number, mode: Yar
 export async function requireYardAccess(user: SessionUser, yardId: number | null | undefined, mode: YardAccess): Promise<void> {
   if (yardId === null || yardId === undefined) return;
   if (await canAccessYard(user, yardId, mode)) return;
-  const yard = await db()("yards").where({ id: yardId }).first("name");
+  const yard = await yardNameById(db(), yardId);
   const what = mode === "edit" ? "change the work of" : "see contact details or messages of";
   throw new ApiError(403, `You cannot ${what} ${yard?.name ?? "that yard"}: it is not one of your yards.`, { reason: "yard_scope", yardId });
 }

@@ -89,3 +89,14 @@ export async function revokeUserSessions(q: Knex | Knex.Transaction, userId: num
   if (exceptSid) query = query.whereNot({ id: hashSid(exceptSid) });
   return query.update({ revoked_at: new Date(), revoked_why: why });
 }
+
+/** The active user signing in with this e-mail (the whole row), or undefined. */
+export async function activeUserByEmail(q: Knex, email: string) {
+  return q("users").where({ email, active: true }).first();
+}
+
+/** The yard ids assigned to a user (user_yards): a dispatcher's editable yards. */
+export async function userYardIds(q: Knex, userId: number | string): Promise<number[]> {
+  const rows = await q("user_yards").where({ user_id: userId }).pluck("yard_id");
+  return rows.map(Number);
+}

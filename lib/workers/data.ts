@@ -168,3 +168,9 @@ export async function workerIdByPhone(db: Knex, organisationId: number, phoneE16
   const w = await db("workers").where({ organisation_id: organisationId, phone_e164: phoneE164 }).first("id");
   return w ? Number(w.id) : null;
 }
+
+/** Ids of the organisation's workers whose home yard is one of `yardIds`. */
+export async function workerIdsInYards(db: Knex, organisationId: number, yardIds: number[]): Promise<number[]> {
+  const ids = await db("workers").where({ organisation_id: organisationId }).whereIn("yard_id", yardIds).pluck("id");
+  return ids.map(Number);
+}

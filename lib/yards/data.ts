@@ -47,3 +47,19 @@ export async function firstYard(db: Knex, organisationId: number): Promise<{ tim
   const y = await db("yards").where({ organisation_id: organisationId }).orderBy("id").first("timezone", "name");
   return y ? { timezone: String(y.timezone), name: String(y.name) } : null;
 }
+
+/** A yard's name by its code (any case) in the organisation, or undefined. */
+export async function yardNameByCode(db: Knex, organisationId: number, code: string): Promise<{ name: string } | undefined> {
+  return db("yards").where({ organisation_id: organisationId }).whereRaw("LOWER(code) = ?", [code.toLowerCase()]).first("name");
+}
+
+/** A yard's name by id, or undefined (for the yard-scope refusal). */
+export async function yardNameById(db: Knex, yardId: number): Promise<{ name: string } | undefined> {
+  return db("yards").where({ id: yardId }).first("name");
+}
+
+/** A yard's elevation in metres (0 when unknown), for the approach distance's altitude factor. */
+export async function yardElevationM(db: Knex, yardId: number): Promise<number> {
+  const yard = await db("yards").where({ id: yardId }).first("elevation_m");
+  return Number(yard?.elevation_m ?? 0);
+}
