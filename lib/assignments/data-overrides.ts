@@ -58,3 +58,8 @@ export async function createOverride(db: Knex, user: Actor, input: OverrideInput
     return { id, finding: f };
   }), "override");
 }
+
+/** An order's overrides that have not lapsed (rule and worker). */
+export async function liveOverrides(db: Knex, orderId: number): Promise<{ rule: string; worker_id: number | null }[]> {
+  return db("overrides").where({ work_order_id: orderId }).whereNull("lapsed_at").select("rule", "worker_id");
+}

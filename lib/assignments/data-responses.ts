@@ -133,3 +133,8 @@ export async function respond(db: Knex | Knex.Transaction, input: RespondInput):
   if ((db as Knex.Transaction).isTransaction) return run(db as Knex.Transaction);
   return withConflictRetry(() => (db as Knex).transaction(run, { isolationLevel: "read committed" }), "reply");
 }
+
+/** Whose assignment this is: its worker and its order's organisation, or undefined. */
+export async function assignmentOwner(db: Knex, id: number): Promise<{ worker_id: number; organisation_id: number } | undefined> {
+  return db("assignments as a").join("work_orders as o", "o.id", "a.work_order_id").where("a.id", id).first("a.worker_id", "o.organisation_id");
+}

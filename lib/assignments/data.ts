@@ -459,3 +459,8 @@ export async function swapAssignments(
     }, TX),
   );
 }
+
+/** The workers seated on an order (assignments holding a position). */
+export async function seatedWorkerIds(db: Knex, orderId: number): Promise<number[]> {
+  return (await db("assignments").where({ work_order_id: orderId }).whereNotNull("holds_position").pluck("worker_id")).map(Number);
+}

@@ -491,4 +491,16 @@ export async function unitsForOrders(db: Q, orderIds: number[]): Promise<Map<num
   return out;
 }
 
+/** Every booking of the organisation's equipment on orders not yet over (not cancelled or done), by start. */
+export async function upcomingBookingsOf(db: Knex, organisationId: number): Promise<{ equipment_id: number; number: string; work_date: string }[]> {
+  return db("equipment_assignments as ea")
+    .join("work_orders as o", "o.id", "ea.work_order_id")
+    .join("equipment as e", "e.id", "ea.equipment_id")
+    .where("e.organisation_id", organisationId)
+    .whereNotIn("o.status", ["cancelled", "done"])
+    .where("o.end_at", ">", new Date())
+    .orderBy("o.start_at")
+    .select("ea.equipment_id", "o.number", "o.work_date");
+}
+
 export { REQUIRED_KIND };

@@ -65,3 +65,8 @@ function parsePayload(p: unknown) {
   }
   return p ?? null;
 }
+
+/** The organisation's newest board_events id (0 when it has none): where a new stream starts. */
+export async function lastEventId(q: Knex | Knex.Transaction, organisationId: number): Promise<number> {
+  return Number((await q("board_events").where({ organisation_id: organisationId }).max({ id: "id" }).first())?.id ?? 0);
+}

@@ -287,3 +287,8 @@ export async function fileRow(
   if (only.workOrderId !== undefined) where.work_order_id = only.workOrderId;
   return (await db("files").where(where).first()) ?? null;
 }
+
+/** The order's briefing photos among `ids` (id, type, content hash), for the briefing PDF. */
+export async function briefingPhotoFiles(db: Knex, organisationId: number, orderId: number, ids: number[]): Promise<{ id: number; mime: string; sha256: string }[]> {
+  return db("files").whereIn("id", ids).where({ organisation_id: organisationId, kind: "briefing_photo", work_order_id: orderId }).select("id", "mime", "sha256");
+}

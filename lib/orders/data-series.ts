@@ -342,3 +342,9 @@ export async function seriesWithOrderIds(db: Knex, organisationId: number, id: n
   const orderIds = (await db("work_orders").where({ series_id: id }).pluck("id")) as number[];
   return { series: s as Record<string, any>, orderIds };
 }
+
+/** A series' stored template (the JSON text as stored), or undefined. */
+export async function seriesTemplateText(db: Knex, seriesId: number): Promise<unknown> {
+  const row = await db("order_series").where({ id: seriesId }).first("template");
+  return row?.template;
+}

@@ -583,3 +583,16 @@ export async function orderNumbers(db: Q, organisationId: number, ids: number[])
   const rows = await db("work_orders").where({ organisation_id: organisationId }).whereIn("id", ids).select("id", "number");
   return new Map(rows.map((o: { id: number; number: string }) => [Number(o.id), o.number]));
 }
+
+/** The positions `ids` with their order's organisation, yard, day and number (Fill: accept). */
+export async function positionsWithOrders(db: Knex, ids: number[]) {
+  return db("positions as p")
+    .join("work_orders as o", "o.id", "p.work_order_id")
+    .whereIn("p.id", ids)
+    .select("p.id", "p.work_order_id", "o.organisation_id", "o.yard_id", "o.work_date", "o.number");
+}
+
+/** An order's organisation, yard and day, or undefined. */
+export async function orderPlace(db: Knex, id: number): Promise<{ organisation_id: number; yard_id: number; work_date: string } | undefined> {
+  return db("work_orders").where({ id }).first("organisation_id", "yard_id", "work_date");
+}

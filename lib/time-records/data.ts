@@ -274,3 +274,17 @@ export async function deleteRecord(trx: Knex.Transaction, actor: Actor, id: numb
     await boardEvent(trx, { organisationId: org, yardId: Number(r.yard_id), day, kind: "availability", payload: { workerId: Number(r.worker_id), timeRecordId: id } });
   }
 }
+
+/** The organisation's call-outs of the last 14 days, newest first (at most 30), for Rotations. */
+export async function recentCallOuts(db: Knex, organisationId: number) {
+  return db("time_records as t")
+    .join("workers as w", "w.id", "t.worker_id")
+    .join("yards as y", "y.id", "w.yard_id")
+    .leftJoin("rotations as r", "r.id", "t.rotation_id")
+    .where("w.organisation_id", organisationId)
+    .where("t.kind", "call_out")
+    .where("t.start_at", ">=", new Date(Date.now() - 14 * 86_400_000))
+    .orderBy("t.start_at", "desc")
+    .limit(30)
+    .select("t.id", "t.worker_id", "t.start_at", "t.end_at", "t.reason", "w.first_name", "w.last_name", "y.timezone", "r.name as rotation_name");
+}

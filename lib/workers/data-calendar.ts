@@ -114,3 +114,13 @@ export async function setCalendarToken(trx: Knex | Knex.Transaction, organisatio
   const n = await trx("workers").where({ id: workerId, organisation_id: organisationId }).update({ calendar_token: token, updated_at: new Date() });
   return n > 0;
 }
+
+/** A worker's calendar token (null when none), by worker id. */
+export async function calendarToken(q: Knex, workerId: number): Promise<string | null> {
+  return (await q("workers").where({ id: workerId }).first("calendar_token"))?.calendar_token ?? null;
+}
+
+/** A worker's calendar token and home yard's name (My week), or undefined. */
+export async function calendarTokenAndYard(q: Knex, workerId: number): Promise<{ calendar_token: string | null; yard_name: string } | undefined> {
+  return q("workers as w").join("yards as y", "y.id", "w.yard_id").where("w.id", workerId).first("w.calendar_token", "y.name as yard_name");
+}

@@ -2,7 +2,7 @@ import { requirePageRole } from "@/lib/auth/session";
 import { ROLES } from "@/lib/users/roles";
 import { db } from "@/lib/db";
 import { PageHeader, SafetyNote } from "@/components/status";
-import { listEquipment } from "@/lib/equipment/data";
+import { listEquipment, upcomingBookingsOf } from "@/lib/equipment/data";
 import { CAN_EDIT_EQUIPMENT } from "@/lib/equipment/roles";
 import { listYards } from "@/lib/yards/data";
 import { todayIn } from "@/lib/time/days";
@@ -15,14 +15,7 @@ export default async function EquipmentPage() {
   const conn = db();
   const [equipment, yards] = await Promise.all([listEquipment(conn, user.organisationId), listYards(conn, user.organisationId)]);
   const home = yards.find((y) => y.id === user.homeYardId) ?? yards[0];
-  const upcoming = await conn("equipment_assignments as ea")
-    .join("work_orders as o", "o.id", "ea.work_order_id")
-    .join("equipment as e", "e.id", "ea.equipment_id")
-    .where("e.organisation_id", user.organisationId)
-    .whereNotIn("o.status", ["cancelled", "done"])
-    .where("o.end_at", ">", new Date())
-    .orderBy("o.start_at")
-    .select("ea.equipment_id", "o.number", "o.work_date");
+  const upcoming = await upcomingBookingsOf(conn, user.organisationId);
   const bookings: Record<number, { number: string; day: string }[]> = {};
   for (const b of upcoming) (bookings[b.equipment_id] ??= []).push({ number: b.number, day: b.work_date });
   return (

@@ -4,7 +4,7 @@ import { db } from "@/lib/db";
 import { Badge, PageHeader, SafetyNote, StateIcon, type Tone } from "@/components/status";
 import { OfflineSync } from "@/components/offline/offline-sync";
 import { MyCredentials } from "@/app/(app)/credentials/my-credentials";
-import { calendarUrlFor } from "@/lib/workers/data-calendar";
+import { calendarTokenAndYard, calendarUrlFor } from "@/lib/workers/data-calendar";
 import { briefingsToAcknowledge } from "@/lib/briefings/data";
 import { listUnavailability } from "@/lib/leave/data";
 import { POSITION_LABEL } from "@/lib/format";
@@ -61,7 +61,7 @@ export default async function MyWeekPage() {
   const [assignments, toAck, worker, leave] = await Promise.all([
     myAssignments(conn, user.workerId, now),
     briefingsToAcknowledge(conn, user.workerId, new Date(now.getTime() - 12 * 3_600_000)),
-    conn("workers as w").join("yards as y", "y.id", "w.yard_id").where("w.id", user.workerId).first("w.calendar_token", "y.name as yard_name"),
+    calendarTokenAndYard(conn, user.workerId),
     listUnavailability(conn, user.organisationId, { workerId: user.workerId }),
   ]);
   const upcomingLeave = leave.filter((l) => new Date(l.end).getTime() > now.getTime());

@@ -6,6 +6,7 @@ import { ActionButton } from "@/components/form-bits";
 import { fmtLocal } from "@/lib/time/zoned-format";
 import { listRotations } from "@/lib/rotations/data";
 import { listWorkers } from "@/lib/workers/data";
+import { recentCallOuts } from "@/lib/time-records/data";
 import { listYards } from "@/lib/yards/data";
 import { addDays, todayIn } from "@/lib/time/days";
 import { epochToZonedWallTime } from "@/lib/rules/time";
@@ -30,16 +31,7 @@ export default async function RotationsPage() {
   const today = todayIn(home.timezone);
   const yardOptions = yards.map((y) => ({ id: y.id, code: y.code, name: y.name, timezone: y.timezone }));
   const workerOptions = workers.map((w) => ({ id: w.id, name: w.name, employeeNo: w.employeeNo, yardId: w.yardId, yardCode: w.yardCode }));
-  const recent = await conn("time_records as t")
-    .join("workers as w", "w.id", "t.worker_id")
-    .join("yards as y", "y.id", "w.yard_id")
-    .leftJoin("rotations as r", "r.id", "t.rotation_id")
-    .where("w.organisation_id", user.organisationId)
-    .where("t.kind", "call_out")
-    .where("t.start_at", ">=", new Date(Date.now() - 14 * 86_400_000))
-    .orderBy("t.start_at", "desc")
-    .limit(30)
-    .select("t.id", "t.worker_id", "t.start_at", "t.end_at", "t.reason", "w.first_name", "w.last_name", "y.timezone", "r.name as rotation_name");
+  const recent = await recentCallOuts(conn, user.organisationId);
 
   return (
     <>

@@ -5,7 +5,7 @@ import { requirePageRole } from "@/lib/auth/session";
 import { db } from "@/lib/db";
 import { Badge, PageHeader } from "@/components/status";
 import { ActionButton } from "@/components/form-bits";
-import { calendarUrlFor } from "@/lib/workers/data-calendar";
+import { calendarToken, calendarUrlFor } from "@/lib/workers/data-calendar";
 import { workerWeek, weekStart, type TimeKind } from "@/lib/time-records/data";
 import { listWorkers } from "@/lib/workers/data";
 import { addDays, todayIn } from "@/lib/time/days";
@@ -35,7 +35,7 @@ export default async function TimePage({ searchParams }: { searchParams: Promise
   const week = workerId ? await workerWeek(conn, user.organisationId, workerId, sp.week && isIsoDate(sp.week) ? sp.week : undefined) : null;
   const canEnter = ["dispatcher", "supervisor", "hr"].includes(user.role);
   const canLink = Boolean(week) && (own || user.role === "hr" || user.role === "admin");
-  const token = canLink && workerId ? ((await conn("workers").where({ id: workerId }).first("calendar_token"))?.calendar_token ?? null) : null;
+  const token = canLink && workerId ? await calendarToken(conn, workerId) : null;
   const href = (w: string) => `/time?${new URLSearchParams({ ...(own ? {} : { worker: String(workerId) }), week: w })}`;
 
   return (

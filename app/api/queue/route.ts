@@ -4,6 +4,7 @@ import { requireRole } from "@/lib/auth/session";
 import { CAN_OVERRIDE } from "@/lib/users/roles";
 import { queueQuerySchema } from "@/lib/queue/model";
 import { queueYards, supervisorQueue } from "@/lib/queue/data";
+import { yardNameByCode } from "@/lib/yards/data";
 
 export const dynamic = "force-dynamic";
 
@@ -15,7 +16,7 @@ export const GET = handler(async (req) => {
   if (q.yard) {
     const mine = await queueYards(db(), user);
     if (!mine.some((y) => y.code.toLowerCase() === q.yard!.toLowerCase())) {
-      const any = await db()("yards").where({ organisation_id: user.organisationId }).whereRaw("LOWER(code) = ?", [q.yard.toLowerCase()]).first("name");
+      const any = await yardNameByCode(db(), user.organisationId, q.yard);
       if (!any) throw new ApiError(404, `No yard with code ${q.yard}.`);
       throw new ApiError(403, `${any.name} is not one of your yards.`, { reason: "yard_scope" });
     }

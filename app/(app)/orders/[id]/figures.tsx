@@ -1,6 +1,7 @@
 import type { Knex } from "knex";
 import { ApproachFigure, FiguresCaution, LiftFiguresView } from "@/components/field-figures";
 import { getLiftPlan, riggingChoices } from "@/lib/gear/data";
+import { yardElevationM as yardElevation } from "@/lib/yards/data";
 import { approachFor, liftFiguresFor } from "@/lib/gear/figures";
 import { isLiftingKind } from "@/lib/gear/lift";
 import { energyLabel } from "@/lib/orders/voltage";
@@ -9,12 +10,11 @@ import { LiftPlanEditor } from "./lift-plan";
 
 /** The order page's field figures: minimum approach distance and the lift plan (issue 16). */
 export async function OrderFigures({ conn, organisationId, order, canEdit }: { conn: Knex; organisationId: number; order: OrderView; canEdit: boolean }) {
-  const [yard, plan, rigging] = await Promise.all([
-    conn("yards").where({ id: order.yardId }).first("elevation_m"),
+  const [yardElevationM, plan, rigging] = await Promise.all([
+    yardElevation(conn, order.yardId),
     getLiftPlan(conn, organisationId, order.id),
     riggingChoices(conn, order.id),
   ]);
-  const yardElevationM = Number(yard?.elevation_m ?? 0);
   const approach = approachFor({ ...order, yardElevationM });
   const lifting = isLiftingKind({ workTypeName: order.workTypeName, title: order.title });
   const figures = plan ? liftFiguresFor(plan) : null;

@@ -1,5 +1,6 @@
 import { db } from "@/lib/db";
-import { findingsAfter } from "@/lib/assignments/data";
+import { findingsAfter, seatedWorkerIds } from "@/lib/assignments/data";
+import { liveOverrides } from "@/lib/assignments/data-overrides";
 import { Badge, SafetyNote } from "@/components/status";
 import { ruleName } from "@/lib/rules/rule-labels";
 
@@ -7,10 +8,10 @@ import { ruleName } from "@/lib/rules/rule-labels";
 // rules over this order and its crew's neighbouring orders, checked on the server.
 export async function OrderFindings({ organisationId, orderId }: { organisationId: number; orderId: number }) {
   const conn = db();
-  const workerIds = (await conn("assignments").where({ work_order_id: orderId }).whereNotNull("holds_position").pluck("worker_id")).map(Number);
+  const workerIds = await seatedWorkerIds(conn, orderId);
   const { findings: all } = await findingsAfter(conn, organisationId, [orderId], workerIds);
   const findings = all.filter((f) => f.workOrderId === String(orderId));
-  const overrides = await conn("overrides").where({ work_order_id: orderId }).whereNull("lapsed_at").select("rule", "worker_id");
+  const overrides = await liveOverrides(conn, orderId);
   const overridden = new Set(overrides.map((o: { rule: string; worker_id: number | null }) => `${o.rule}|${o.worker_id ?? ""}`));
   const blocks = findings.filter((f) => f.level === "block");
   const warns = findings.filter((f) => f.level === "warn");

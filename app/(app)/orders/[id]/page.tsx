@@ -11,7 +11,7 @@ import { fmtDate, POSITION_LABEL } from "@/lib/format";
 import { editValuesFromView } from "@/lib/orders/form";
 import { locateBadgeLabel } from "@/lib/orders/locate";
 import { energyLabel } from "@/lib/orders/voltage";
-import type { SeriesTemplate } from "@/lib/orders/data-series";
+import { seriesTemplateText, type SeriesTemplate } from "@/lib/orders/data-series";
 import { CREW_EXCEPTION_LABEL, STATUS_LABEL, STATUS_TONE } from "@/lib/orders/status";
 import { floating, floatingToLocal, repeatFormFrom } from "@/lib/time/recurrence";
 import { OrderForm, type OrderFormShape } from "../order-form";
@@ -42,8 +42,7 @@ export default async function OrderPage({ params, searchParams }: { params: Prom
 
   let seriesInitial: OrderFormShape | null = null;
   if (order.series) {
-    const row = await conn("order_series").where({ id: order.series.id }).first("template");
-    const t = parseJson<SeriesTemplate | null>(row?.template, null);
+    const t = parseJson<SeriesTemplate | null>(await seriesTemplateText(conn, order.series.id), null);
     if (t) {
       const start = order.series.dtstartLocal.slice(0, 16);
       seriesInitial = {

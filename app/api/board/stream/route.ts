@@ -9,7 +9,7 @@ import { useSecureCookies } from "@/lib/auth/options";
 import { liveSessionUser } from "@/lib/users/data-sessions";
 import { calendarDay } from "@/lib/time/days";
 import { pickYard } from "@/lib/yards/data";
-import { eventsSince } from "@/lib/events/data";
+import { eventsSince, lastEventId } from "@/lib/events/data";
 import { subscribe, toHubEvent, type HubEvent } from "@/lib/board/data-stream";
 
 export const runtime = "nodejs";
@@ -103,7 +103,7 @@ export const GET = handler(async (req) => {
         // What the browser missed: every event after its last id, from the table (in id order);
         // then what the follower hands out (each id once: `sent`).
         let cursor = after;
-        if (cursor === null) cursor = Number((await db()("board_events").where({ organisation_id: user.organisationId }).max({ id: "id" }).first())?.id ?? 0);
+        if (cursor === null) cursor = await lastEventId(db(), user.organisationId);
         for (;;) {
           const page = await eventsSince(db(), user.organisationId, cursor, yard.id, q.date);
           for (const r of page.events) send(toHubEvent({ ...r, organisation_id: user.organisationId, yard_id: yard.id, day: q.date }));

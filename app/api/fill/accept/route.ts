@@ -8,6 +8,7 @@ import { createAssignment, findingsAfter } from "@/lib/assignments/data";
 import { pickYard } from "@/lib/yards/data";
 import { fillAcceptSchema } from "@/lib/fill/schema";
 import { bookEquipment } from "@/lib/equipment/data";
+import { orderPlace, positionsWithOrders } from "@/lib/orders/data";
 
 export const dynamic = "force-dynamic";
 
@@ -23,10 +24,7 @@ export const POST = handler(async (req) => {
   if (!yard || yard.code.toLowerCase() !== input.yard.toLowerCase()) throw new ApiError(404, `No yard with code ${input.yard}.`);
 
   const ids = [...new Set(input.proposals.map((p) => p.positionId))];
-  const seats = await db()("positions as p")
-    .join("work_orders as o", "o.id", "p.work_order_id")
-    .whereIn("p.id", ids)
-    .select("p.id", "p.work_order_id", "o.organisation_id", "o.yard_id", "o.work_date", "o.number");
+  const seats = await positionsWithOrders(db(), ids);
   const seatOf = new Map(seats.map((s) => [s.id as number, s]));
 
   const results: Array<{ positionId: number; workerId: number; ok: boolean; assignmentId?: number | null; status?: number; error?: string }> = [];
@@ -59,7 +57,7 @@ export const POST = handler(async (req) => {
   // Issue 16: the proposed trucks, each through the locked booking write (409 when it went elsewhere meanwhile).
   const trucks: Array<{ workOrderId: number; equipmentId: number; ok: boolean; status?: number; error?: string }> = [];
   for (const t of input.trucks) {
-    const on = await db()("work_orders").where({ id: t.workOrderId }).first("organisation_id", "yard_id", "work_date");
+    const on = await orderPlace(db(), t.workOrderId);
     if (!on || on.organisation_id !== user.organisationId || on.yard_id !== yard.id || on.work_date !== input.date) {
       trucks.push({ ...t, ok: false, status: 422, error: `Order ${t.workOrderId} is not on the ${yard.code} board for ${input.date}.` });
       continue;

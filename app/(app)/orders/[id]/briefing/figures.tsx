@@ -2,6 +2,7 @@ import type { Knex } from "knex";
 import { ApproachFigure, FiguresCaution, LiftFiguresView } from "@/components/field-figures";
 import { getOrder } from "@/lib/orders/data";
 import { getLiftPlan } from "@/lib/gear/data";
+import { yardElevationM as yardElevation } from "@/lib/yards/data";
 import { approachFor, liftFiguresFor } from "@/lib/gear/figures";
 import { isLiftingKind } from "@/lib/gear/lift";
 import { energyLabel } from "@/lib/orders/voltage";
@@ -15,8 +16,7 @@ import { LiftConfirmForm } from "./lift-confirm";
 export async function BriefingFigures({ conn, organisationId, orderId, isLead }: { conn: Knex; organisationId: number; orderId: number; isLead: boolean }) {
   const order = await getOrder(conn, organisationId, orderId);
   if (!order) return null;
-  const [yard, plan] = await Promise.all([conn("yards").where({ id: order.yardId }).first("elevation_m"), getLiftPlan(conn, organisationId, orderId)]);
-  const yardElevationM = Number(yard?.elevation_m ?? 0);
+  const [yardElevationM, plan] = await Promise.all([yardElevation(conn, order.yardId), getLiftPlan(conn, organisationId, orderId)]);
   const figures = plan ? liftFiguresFor(plan) : null;
   const lifting = isLiftingKind({ workTypeName: order.workTypeName, title: order.title });
   return (

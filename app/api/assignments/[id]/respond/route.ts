@@ -3,7 +3,7 @@ import { idParam } from "@/lib/api/ids";
 import { ApiError, handler, json, readJson } from "@/lib/api/http";
 import { requireRole } from "@/lib/auth/session";
 import { respondSchema } from "@/lib/notify/schema";
-import { respond } from "@/lib/assignments/data-responses";
+import { assignmentOwner, respond } from "@/lib/assignments/data-responses";
 import { idempotent } from "@/lib/offline/data";
 
 // A lineworker answers their own assignment on the web (My week); texts use the same respond().
@@ -16,7 +16,7 @@ export const POST = handler<{ id: string }>(async (req, ctx) => {
     const input = await readJson(req, respondSchema);
     const workerId = user.workerId;
     if (!workerId) throw new ApiError(403, "Your sign-in is not linked to a worker; ask an admin.");
-    const owner = await db()("assignments as a").join("work_orders as o", "o.id", "a.work_order_id").where("a.id", id).first("a.worker_id", "o.organisation_id");
+    const owner = await assignmentOwner(db(), id);
     if (!owner || owner.organisation_id !== user.organisationId) throw new ApiError(404, "No such assignment.");
     if (owner.worker_id !== workerId) throw new ApiError(403, "You can only answer your own assignments.");
     const result = await respond(db(), {

@@ -4,7 +4,7 @@ import { idParam } from "@/lib/api/ids";
 import { requireRole } from "@/lib/auth/session";
 import { loadBriefing, modeFor } from "@/lib/briefings/data";
 import { briefingPdf, type PhotoBytes } from "@/lib/briefings/pdf";
-import { contentDisposition, readBlob } from "@/lib/files/data";
+import { briefingPhotoFiles, contentDisposition, readBlob } from "@/lib/files/data";
 import { POLE_CHECKS } from "@/lib/briefings/model";
 
 type P = { orderId: string };
@@ -24,7 +24,7 @@ export const GET = handler<P>(async (_req, ctx) => {
   const ids = POLE_CHECKS.map((c) => view.data.poleCheck.items[c.key].photoFileId).filter((v): v is number => v !== null);
   const photos: PhotoBytes[] = [];
   if (ids.length) {
-    const rows = await conn("files").whereIn("id", ids).where({ organisation_id: user.organisationId, kind: "briefing_photo", work_order_id: orderId }).select("id", "mime", "sha256");
+    const rows = await briefingPhotoFiles(conn, user.organisationId, orderId, ids);
     for (const r of rows) {
       const bytes = await readBlob(r.sha256);
       if (bytes) photos.push({ fileId: Number(r.id), mime: String(r.mime), bytes: new Uint8Array(bytes) });
