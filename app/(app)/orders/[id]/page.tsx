@@ -7,6 +7,7 @@ import { getOrder, parseJson } from "@/lib/orders/data";
 import { listWorkTypes } from "@/lib/orders/data-work-types";
 import { listYards } from "@/lib/yards/data";
 import { todayIn } from "@/lib/time/days";
+import { zoneAbbreviation } from "@/lib/time/zoned-format";
 import { fmtDate, POSITION_LABEL } from "@/lib/format";
 import { editValuesFromView } from "@/lib/orders/form";
 import { locateBadgeLabel } from "@/lib/orders/locate";
@@ -118,7 +119,7 @@ export default async function OrderPage({ params, searchParams }: { params: Prom
             <dt className="text-ink-500">When</dt>
             <dd className="font-semibold">
               {fmtDate(order.workDate)} · {order.startLocal.slice(11)}–{order.endLocal.slice(11)}
-              {order.endLocal.slice(0, 10) !== order.workDate ? ` (ends ${fmtDate(order.endLocal.slice(0, 10))})` : ""} · {order.yardName} time
+              {order.endLocal.slice(0, 10) !== order.workDate ? ` (ends ${fmtDate(order.endLocal.slice(0, 10))})` : ""} · {zoneAbbreviation(order.start, order.timezone)} ({order.yardName})
             </dd>
             <dt className="text-ink-500">Where</dt>
             <dd>
