@@ -20,13 +20,18 @@ declare const self: ServiceWorkerGlobalScope;
 // Sign-out (lib/offline/cache.ts) sends CLEAR_FIELD_CACHE: the field cache is deleted, and a
 // page fetched before that moment but answered after it is not written back (the generation
 // it started in is over), so nothing of the signed-out user comes back.
+// After a sign-out the cache also stays shut (nothing is written, even for a fetch that began
+// after the clear while the old session cookie still answered) until a signed-in page asks the
+// worker to keep its pages again (CACHE_URLS, sent by My week and the briefing after they
+// claimed the cache for their user).
 let generation = 0;
+let shut = false;
 const sameGeneration: SerwistPlugin = {
   requestWillFetch: async ({ request, state }) => {
     if (state) state.generation = generation;
     return request;
   },
-  cacheWillUpdate: async ({ response, state }) => (state && state.generation !== generation ? null : response),
+  cacheWillUpdate: async ({ response, state }) => (shut || (state && state.generation !== generation) ? null : response),
 };
 
 const fieldPages = new NetworkFirst({
@@ -69,8 +74,11 @@ const serwist = new Serwist({
 });
 
 self.addEventListener("message", (event) => {
+  // Registered before Serwist's own listener, so the cache opens before its CACHE_URLS fetches start.
+  if (event.data?.type === "CACHE_URLS") shut = false;
   if (event.data?.type !== CLEAR_MESSAGE) return;
   generation += 1;
+  shut = true;
   event.waitUntil(caches.delete(FIELD_CACHE).then(() => event.ports[0]?.postMessage(true)));
 });
 

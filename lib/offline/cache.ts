@@ -6,6 +6,9 @@
 import { CLEAR_MESSAGE, FIELD_CACHE } from "./model";
 import { deleteQueueDatabase, getOwner, setOwner } from "./store";
 
+/** Set by sign-out: a page on its way out must not reopen the field cache. */
+let signingOut = false;
+
 const supported = () => typeof navigator !== "undefined" && "serviceWorker" in navigator && typeof caches !== "undefined";
 
 export async function registerWorker(): Promise<ServiceWorkerRegistration | null> {
@@ -27,7 +30,7 @@ export async function claimFieldCache(userId: number) {
 
 /** Has the worker fetch and keep these pages (network-first: a fresh copy each time). */
 export async function keepPages(urls: string[], timeoutMs = 15_000): Promise<boolean> {
-  if (!supported() || urls.length === 0) return false;
+  if (!supported() || urls.length === 0 || signingOut) return false;
   const reg = await Promise.race([navigator.serviceWorker.ready, new Promise<null>((r) => setTimeout(() => r(null), timeoutMs))]);
   const worker = reg?.active;
   if (!worker) return false;
@@ -63,6 +66,8 @@ async function ask(message: unknown, timeoutMs: number): Promise<boolean> {
  * app/sw.ts); then every cache but the app shell's precache, and the queue's database.
  */
 export async function clearOfflineData() {
+  // From here this page asks the worker to keep nothing more (the worker stays shut too).
+  signingOut = true;
   await ask({ type: CLEAR_MESSAGE }, 3000).catch(() => false);
   if (typeof caches !== "undefined") {
     for (const name of await caches.keys()) {
