@@ -6,8 +6,11 @@ import { QUEUE_DB } from "./model";
 import type { QueuedAction, QueueStore } from "./queue";
 
 let opened: Promise<IDBPDatabase> | null = null;
+/** Set by sign-out: this page opens the database no more (opening would create it again). */
+let deleted = false;
 
 function database() {
+  if (deleted) return Promise.reject(new Error("the phone's queue was deleted at sign-out"));
   opened ??= openDB(QUEUE_DB, 1, {
     upgrade(db) {
       db.createObjectStore("actions", { keyPath: "seq", autoIncrement: true });
@@ -49,8 +52,16 @@ export async function setOwner(userId: number) {
 
 /** Deletes the whole database (sign-out). */
 export async function deleteQueueDatabase() {
+  deleted = true;
   const d = opened;
   opened = null;
-  if (d) (await d).close();
-  await deleteDB(QUEUE_DB);
+  if (d) (await d.catch(() => null))?.close();
+  // Deleting waits for other connections to close (their `blocking` handler closes them); check
+  // that it is gone and try again if something still held it.
+  for (let attempt = 0; attempt < 3; attempt++) {
+    await deleteDB(QUEUE_DB);
+    const names = typeof indexedDB.databases === "function" ? (await indexedDB.databases()).map((x) => x.name) : [];
+    if (!names.includes(QUEUE_DB)) return;
+    await new Promise((r) => setTimeout(r, 200));
+  }
 }

@@ -212,8 +212,9 @@ test("offline at the pole: gear check, failed ground line with photo, acknowledg
   await expect.poll(() => fieldPaths(page)).toContain("/me");
   await page.getByRole("button", { name: "Sign out" }).click();
   await expect(page).toHaveURL(/\/login/);
-  expect(await page.evaluate(() => caches.has("gaffline-field"))).toBe(false);
-  expect(await page.evaluate(async () => (await indexedDB.databases()).map((d) => d.name))).not.toContain("gaffline-offline");
+  // The browser finishes a deletion once the old page's connections are gone: wait for it (5 s at most).
+  await expect.poll(() => page.evaluate(() => caches.has("gaffline-field")), { timeout: 5_000 }).toBe(false);
+  await expect.poll(() => page.evaluate(async () => (await indexedDB.databases()).map((d) => d.name)), { timeout: 5_000 }).not.toContain("gaffline-offline");
   const left = await page.evaluate(async () => {
     const out: string[] = [];
     for (const name of await caches.keys()) for (const r of await (await caches.open(name)).keys()) out.push(new URL(r.url).pathname);
